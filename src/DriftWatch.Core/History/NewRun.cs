@@ -1,0 +1,17 @@
+using DriftWatch.Core.Findings;
+using DriftWatch.Core.Profiling;
+
+namespace DriftWatch.Core.History;
+
+/// <summary>What one check of one pair produced; written to the store in one transaction.</summary>
+public sealed record NewRun(
+    string Pair,
+    DateTimeOffset StartedAt,
+    DateTimeOffset FinishedAt,
+    RunStatus Status,
+    string? Error,
+    RelationshipProfile? Profile,
+    IReadOnlyList<Finding> Findings,
+    SourceFigures? SourceFigures,
+    PairedSample? Points,
+    string? SampleMethod = null);

@@ -1,0 +1,7 @@
+namespace DriftWatch.Core.History;
+
+public enum RunStatus
+{
+    Succeeded,
+    Failed,
+}

@@ -1,0 +1,48 @@
+namespace DriftWatch.Core.Profiling;
+
+/// <summary>
+/// Everything DriftWatch knows about one extract of a pair. A null figure means "undefined for this
+/// sample" (too few rows, zero variance); the engine never emits NaN or infinity.
+/// Field names map one-to-one to the snake_case JSON contract of <c>driftwatch profile</c>.
+/// </summary>
+public sealed record RelationshipProfile
+{
+    public int NRows { get; init; }
+    public int NUsed { get; init; }
+    public int NNull { get; init; }
+    public int NNonfinite { get; init; }
+    public int NNonNumeric { get; init; }
+    public int DistinctX { get; init; }
+    public int DistinctY { get; init; }
+    public double? XMean { get; init; }
+    public double? XSd { get; init; }
+    public double? YMean { get; init; }
+    public double? YSd { get; init; }
+    public double? PearsonR { get; init; }
+    public double? PearsonP { get; init; }
+    public double? PearsonCiLow { get; init; }
+    public double? PearsonCiHigh { get; init; }
+    public double? SpearmanRho { get; init; }
+    public double? KendallTauB { get; init; }
+    public double? Intercept { get; init; }
+    public double? Slope { get; init; }
+    public double? SlopeSe { get; init; }
+    public double? InterceptSe { get; init; }
+    public double? RSquared { get; init; }
+    public double? ResidualSd { get; init; }
+    public double? QuadraticCoef { get; init; }
+    public double? QuadraticP { get; init; }
+    public double? QuadraticR2Gain { get; init; }
+    public int? OutlierCount { get; init; }
+    public double? OutlierRate { get; init; }
+    public double? MaxCooksDistance { get; init; }
+    public int? CooksOverThreshold { get; init; }
+    public double? MaxLeverage { get; init; }
+    public double? PearsonRWithoutTopInfluence { get; init; }
+    public bool ExactAffine { get; init; }
+    public bool ExactIdentity { get; init; }
+    public bool ExactMonotone { get; init; }
+    public string? Equation { get; init; }
+    public Shape Shape { get; init; }
+    public string? ShapeReason { get; init; }
+}

@@ -1,0 +1,67 @@
+namespace DriftWatch.Core.Statistics;
+
+/// <summary>
+/// Every threshold the profile and the comparison use. Defaults are named constants, written again
+/// in docs/statistics.md with their references; a pair's YAML <c>thresholds:</c> overrides any of them.
+/// </summary>
+public sealed record Thresholds
+{
+    public const double DefaultAlpha = 0.01;
+    public const double DefaultOutlierT = 3.0;
+    public const double DefaultExactRelativeTolerance = 1e-9;
+    public const double DefaultMinCorrelationChange = 0.1;
+    public const double DefaultMinSlopeRatioChange = 0.1;
+    public const double DefaultUnitFactorTolerance = 0.02;
+    public const double DefaultCurvatureMinR2Gain = 0.02;
+    public const double DefaultMinOutlierRateIncrease = 0.02;
+    public const double DefaultMaxOutlierRate = 0.01;
+    public const double DefaultLeverageCooksDistance = 1.0;
+    public const double DefaultMinNullRateIncrease = 0.05;
+    public const double DefaultSampleShrinkRatio = 0.5;
+    public const double DefaultNoRelationshipR = 0.2;
+    public const double DefaultMinOffsetShiftSds = 1.0;
+
+    /// <summary>Significance level for every hypothesis test in a comparison.</summary>
+    public double Alpha { get; init; } = DefaultAlpha;
+
+    /// <summary>|externally studentized residual| above this marks an outlier.</summary>
+    public double OutlierT { get; init; } = DefaultOutlierT;
+
+    /// <summary>Residuals within this fraction of y's scale count as zero (exact relationship).</summary>
+    public double ExactRelativeTolerance { get; init; } = DefaultExactRelativeTolerance;
+
+    /// <summary>Minimum |Δr| for a correlation shift, so huge samples do not alert on trivia.</summary>
+    public double MinCorrelationChange { get; init; } = DefaultMinCorrelationChange;
+
+    /// <summary>Minimum |slope ratio − 1| for a slope shift.</summary>
+    public double MinSlopeRatioChange { get; init; } = DefaultMinSlopeRatioChange;
+
+    /// <summary>Relative distance within which a slope ratio "is" a common unit factor.</summary>
+    public double UnitFactorTolerance { get; init; } = DefaultUnitFactorTolerance;
+
+    /// <summary>Minimum R² gain of the quadratic over the line before curvature is reported.</summary>
+    public double CurvatureMinR2Gain { get; init; } = DefaultCurvatureMinR2Gain;
+
+    /// <summary>Minimum outlier-rate increase (absolute) for an outlier surge.</summary>
+    public double MinOutlierRateIncrease { get; init; } = DefaultMinOutlierRateIncrease;
+
+    /// <summary>Outlier rate above which a single profile reports outliers.</summary>
+    public double MaxOutlierRate { get; init; } = DefaultMaxOutlierRate;
+
+    /// <summary>Cook's distance above which one point alone sets the line.</summary>
+    public double LeverageCooksDistance { get; init; } = DefaultLeverageCooksDistance;
+
+    /// <summary>Minimum null-rate increase (absolute) for a null surge.</summary>
+    public double MinNullRateIncrease { get; init; } = DefaultMinNullRateIncrease;
+
+    /// <summary>Current usable rows below this fraction of the baseline's is a shrunken sample.</summary>
+    public double SampleShrinkRatio { get; init; } = DefaultSampleShrinkRatio;
+
+    /// <summary>|r| and |ρ| both below this: no relationship.</summary>
+    public double NoRelationshipR { get; init; } = DefaultNoRelationshipR;
+
+    /// <summary>Minimum intercept move, in baseline residual SDs, for an offset shift.</summary>
+    public double MinOffsetShiftSds { get; init; } = DefaultMinOffsetShiftSds;
+
+    public static Thresholds Default { get; } = new();
+}

@@ -1,0 +1,3 @@
+using DriftWatch.Cli;
+
+return await CliApp.RunAsync(args, CancellationToken.None);

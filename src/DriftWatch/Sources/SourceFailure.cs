@@ -1,0 +1,12 @@
+namespace DriftWatch.Sources;
+
+internal enum SourceFailure
+{
+    Unreachable,
+    MissingTable,
+    MissingColumn,
+    NonNumericColumn,
+    PermissionDenied,
+    Timeout,
+    QueryError,
+}
