@@ -1,12 +1,79 @@
 using System.CommandLine;
+using System.CommandLine.Invocation;
 
 namespace DriftWatch.Cli;
 
+/// <summary>
+/// The command line. Each command lives in its own <c>Cli/&lt;Name&gt;Command.cs</c> with a
+/// <c>static Command Create(CliConsole console)</c>; adding one is that file plus one line in
+/// <see cref="BuildRoot"/>.
+/// </summary>
 internal static class CliApp
 {
-    public static async Task<int> RunAsync(string[] args, CancellationToken cancellationToken)
+    public const string RootDescription =
+        "DriftWatch watches relationships between numeric column pairs and reports when one becomes " +
+        "suspiciously perfect, drifts or breaks. Findings are statistical signals, not proof.\n\n" +
+        "Examples:\n" +
+        "  driftwatch profile                                   profile the bundled sample\n" +
+        "  driftwatch profile --csv today.csv --x hours --y units --baseline-csv last_month.csv";
+
+    public static Task<int> RunAsync(string[] args, CancellationToken cancellationToken) =>
+        RunAsync(args, CliConsole.System(), cancellationToken);
+
+    public static async Task<int> RunAsync(string[] args, CliConsole console, CancellationToken cancellationToken)
     {
-        var root = new RootCommand("DriftWatch watches relationships between column pairs and alerts when they change.");
-        return await root.Parse(args).InvokeAsync(cancellationToken: cancellationToken);
+        ArgumentNullException.ThrowIfNull(args);
+        ArgumentNullException.ThrowIfNull(console);
+
+        var root = BuildRoot(console);
+        var parsed = root.Parse(args);
+        if (parsed.Action is ParseErrorAction)
+        {
+            // System.CommandLine would exit 1 on a parse error; 1 means "findings" here, so usage errors
+            // are reported by us with exit code 2.
+            foreach (var error in parsed.Errors)
+            {
+                console.WriteError(error.Message);
+            }
+
+            console.Error.WriteLine($"Run '{HelpHint(parsed)} --help' for usage.");
+            return ExitCodes.UsageError;
+        }
+
+        var invocation = new InvocationConfiguration
+        {
+            Output = console.Out,
+            Error = console.Error,
+            // Exceptions reach the catch blocks below, so a usage problem is one line, not a stack trace.
+            EnableDefaultExceptionHandler = false,
+        };
+
+        try
+        {
+            return await parsed.InvokeAsync(invocation, cancellationToken);
+        }
+        catch (CliUsageException ex)
+        {
+            console.WriteError(ex.Message);
+            return ExitCodes.UsageError;
+        }
+    }
+
+    internal static RootCommand BuildRoot(CliConsole console)
+    {
+        var root = new RootCommand(RootDescription);
+        root.Subcommands.Add(ProfileCommand.Create(console));
+        return root;
+    }
+
+    private static string HelpHint(ParseResult parsed)
+    {
+        var names = new List<string>();
+        for (var result = parsed.CommandResult; result is not null; result = result.Parent as System.CommandLine.Parsing.CommandResult)
+        {
+            names.Insert(0, result.Command is RootCommand ? "driftwatch" : result.Command.Name);
+        }
+
+        return string.Join(' ', names);
     }
 }

@@ -1,0 +1,48 @@
+using DriftWatch.Core.Findings;
+using Spectre.Console;
+
+namespace DriftWatch.Output;
+
+/// <summary>
+/// The findings list every command shows: worst first, one headline per finding (severity, kind, p and
+/// effect), the message indented below it, then the caution line.
+/// </summary>
+internal static class FindingsView
+{
+    public static void Render(IAnsiConsole console, IReadOnlyList<Finding> findings)
+    {
+        ArgumentNullException.ThrowIfNull(console);
+        ArgumentNullException.ThrowIfNull(findings);
+
+        console.Write(new Rule("[bold]Findings[/]").LeftJustified());
+        if (findings.Count == 0)
+        {
+            console.MarkupLine("[green]No findings.[/]");
+        }
+
+        foreach (var finding in findings.OrderByDescending(f => f.Severity))
+        {
+            console.MarkupLine($"{SeverityStyle.Markup(finding.Severity)} [bold]{JsonContract.Name(finding.Kind)}[/]{Figures(finding)}");
+            console.Write(new Padder(new Text(finding.Message), new Padding(9, 0, 0, 0)));
+        }
+
+        console.WriteLine();
+        console.MarkupLine($"[dim]{Markup.Escape(Cautions.SignalsNotProof)}[/]");
+    }
+
+    private static string Figures(Finding finding)
+    {
+        var parts = new List<string>(2);
+        if (finding.PValue is not null)
+        {
+            parts.Add("p " + Readable.Probability(finding.PValue));
+        }
+
+        if (finding.Effect is not null)
+        {
+            parts.Add("effect " + Readable.Number(finding.Effect));
+        }
+
+        return parts.Count == 0 ? string.Empty : Markup.Escape("  (" + string.Join(", ", parts) + ")");
+    }
+}

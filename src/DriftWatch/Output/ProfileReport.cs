@@ -1,0 +1,15 @@
+using DriftWatch.Core.Findings;
+using DriftWatch.Core.Profiling;
+
+namespace DriftWatch.Output;
+
+/// <summary>What <c>profile</c> found: one extract's profile, optionally a baseline's, and the findings.</summary>
+/// <param name="Labels">Names for people (columns, files); the table shows them, the JSON contract does not.</param>
+internal sealed record ProfileReport(
+    RelationshipProfile Current,
+    RelationshipProfile? Baseline,
+    IReadOnlyList<Finding> Findings,
+    ProfileLabels Labels);
+
+/// <param name="CurrentSource">Where the current extract came from ("orders.csv", "bundled sample").</param>
+internal sealed record ProfileLabels(string XName, string YName, string CurrentSource, string? BaselineSource);

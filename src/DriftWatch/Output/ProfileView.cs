@@ -1,0 +1,112 @@
+using DriftWatch.Core.Profiling;
+using Spectre.Console;
+
+namespace DriftWatch.Output;
+
+/// <summary>
+/// The human report of <c>profile</c>: which inputs, one table of figures (current beside baseline when
+/// comparing) in sections, then the findings and the caution line.
+/// </summary>
+internal static class ProfileView
+{
+    private sealed record Row(string Label, Func<RelationshipProfile, string> Value);
+
+    private sealed record Section(string Title, IReadOnlyList<Row> Rows);
+
+    private static readonly Section[] Sections =
+    [
+        new("Rows",
+        [
+            new("rows read", p => Readable.Count(p.NRows)),
+            new("used", p => Readable.Count(p.NUsed)),
+            new("empty (null)", p => Readable.Count(p.NNull)),
+            new("NaN or infinite", p => Readable.Count(p.NNonfinite)),
+            new("not a number", p => Readable.Count(p.NNonNumeric)),
+            new("distinct x / y", p => $"{Readable.Count(p.DistinctX)} / {Readable.Count(p.DistinctY)}"),
+        ]),
+        new("Columns",
+        [
+            new("x mean ± sd", p => Readable.WithSpread(p.XMean, p.XSd)),
+            new("y mean ± sd", p => Readable.WithSpread(p.YMean, p.YSd)),
+        ]),
+        new("Correlation",
+        [
+            new("Pearson r [CI]", p => Readable.WithInterval(p.PearsonR, p.PearsonCiLow, p.PearsonCiHigh)),
+            new("Pearson p", p => Readable.Probability(p.PearsonP)),
+            new("Spearman rho", p => Readable.Number(p.SpearmanRho)),
+            new("Kendall tau-b", p => Readable.Number(p.KendallTauB)),
+        ]),
+        new("Least-squares line",
+        [
+            new("equation", p => p.Equation ?? Readable.Undefined),
+            new("slope ± se", p => Readable.WithSpread(p.Slope, p.SlopeSe)),
+            new("intercept ± se", p => Readable.WithSpread(p.Intercept, p.InterceptSe)),
+            new("R squared", p => Readable.Number(p.RSquared)),
+            new("residual sd", p => Readable.Number(p.ResidualSd)),
+        ]),
+        new("Shape",
+        [
+            new("shape", p => JsonContract.Name(p.Shape)),
+            new("why", p => p.ShapeReason ?? string.Empty),
+            new("quadratic term (p)", p => $"{Readable.Number(p.QuadraticCoef)} ({Readable.Probability(p.QuadraticP)})"),
+            new("R squared gain of curve", p => Readable.Number(p.QuadraticR2Gain)),
+            new("outliers", p => $"{Readable.Count(p.OutlierCount)} ({Readable.Percent(p.OutlierRate)})"),
+            new("max Cook's distance", p => Readable.Number(p.MaxCooksDistance)),
+            new("points over Cook's limit", p => Readable.Count(p.CooksOverThreshold)),
+            new("max leverage", p => Readable.Number(p.MaxLeverage)),
+            new("r without top influence", p => Readable.Number(p.PearsonRWithoutTopInfluence)),
+        ]),
+        new("Exactness",
+        [
+            new("y = a + b x exactly", p => Readable.YesNo(p.ExactAffine)),
+            new("y = x exactly", p => Readable.YesNo(p.ExactIdentity)),
+            new("exactly monotone", p => Readable.YesNo(p.ExactMonotone)),
+        ]),
+    ];
+
+    public static void Render(IAnsiConsole console, ProfileReport report)
+    {
+        ArgumentNullException.ThrowIfNull(console);
+        ArgumentNullException.ThrowIfNull(report);
+
+        var labels = report.Labels;
+        console.MarkupLine($"[bold]{Markup.Escape(labels.YName)}[/] against [bold]{Markup.Escape(labels.XName)}[/]");
+        console.MarkupLine($"  current:  {Markup.Escape(labels.CurrentSource)}");
+        if (labels.BaselineSource is not null)
+        {
+            console.MarkupLine($"  baseline: {Markup.Escape(labels.BaselineSource)}");
+        }
+
+        console.WriteLine();
+        console.Write(BuildTable(report));
+        console.WriteLine();
+        FindingsView.Render(console, report.Findings);
+    }
+
+    private static Table BuildTable(ProfileReport report)
+    {
+        var profiles = report.Baseline is null ? [report.Current] : new[] { report.Current, report.Baseline };
+        var table = new Table().Border(TableBorder.Rounded).AddColumn(new TableColumn(string.Empty));
+        table.AddColumn(new TableColumn("[bold]current[/]").RightAligned());
+        if (report.Baseline is not null)
+        {
+            table.AddColumn(new TableColumn("[bold]baseline[/]").RightAligned());
+        }
+
+        foreach (var section in Sections)
+        {
+            if (table.Rows.Count > 0)
+            {
+                table.AddEmptyRow();
+            }
+
+            table.AddRow([new Markup($"[bold underline]{Markup.Escape(section.Title)}[/]"), .. profiles.Select(_ => Text.Empty)]);
+            foreach (var row in section.Rows)
+            {
+                table.AddRow([new Text("  " + row.Label), .. profiles.Select(p => new Text(row.Value(p)))]);
+            }
+        }
+
+        return table;
+    }
+}
