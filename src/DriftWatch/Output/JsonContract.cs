@@ -1,5 +1,7 @@
+using System.Text.Encodings.Web;
 using System.Text.Json;
 using System.Text.Json.Serialization;
+using System.Text.Unicode;
 using DriftWatch.Core.Findings;
 using DriftWatch.Core.Profiling;
 
@@ -97,6 +99,9 @@ internal static class JsonContract
             NewLine = "\n",
             PropertyNamingPolicy = JsonNamingPolicy.SnakeCaseLower,
             NumberHandling = JsonNumberHandling.Strict,
+            // Column names and equations ("y = 118·x") stay readable; HTML-sensitive characters are
+            // still escaped, so the same text is safe inside the dashboard's pages.
+            Encoder = JavaScriptEncoder.Create(UnicodeRanges.All),
             DefaultIgnoreCondition = JsonIgnoreCondition.Never,
             Converters = { new JsonStringEnumConverter(JsonNamingPolicy.SnakeCaseLower, allowIntegerValues: false) },
         };

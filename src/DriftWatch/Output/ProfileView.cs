@@ -47,10 +47,9 @@ internal static class ProfileView
         new("Shape",
         [
             new("shape", p => JsonContract.Name(p.Shape)),
-            new("why", p => p.ShapeReason ?? string.Empty),
-            new("quadratic term (p)", p => $"{Readable.Number(p.QuadraticCoef)} ({Readable.Probability(p.QuadraticP)})"),
+            new("quadratic term (p)", p => Readable.WithNote(Readable.Number(p.QuadraticCoef), p.QuadraticP is null ? null : "p " + Readable.Probability(p.QuadraticP))),
             new("R squared gain of curve", p => Readable.Number(p.QuadraticR2Gain)),
-            new("outliers", p => $"{Readable.Count(p.OutlierCount)} ({Readable.Percent(p.OutlierRate)})"),
+            new("outliers", p => Readable.WithNote(Readable.Count(p.OutlierCount), p.OutlierRate is null ? null : Readable.Percent(p.OutlierRate))),
             new("max Cook's distance", p => Readable.Number(p.MaxCooksDistance)),
             new("points over Cook's limit", p => Readable.Count(p.CooksOverThreshold)),
             new("max leverage", p => Readable.Number(p.MaxLeverage)),
@@ -79,14 +78,29 @@ internal static class ProfileView
 
         console.WriteLine();
         console.Write(BuildTable(report));
+        // The shape's reason is a sentence: below the table it reads as one, inside a cell it would not.
+        WriteShapeReason(console, "current", report.Current);
+        if (report.Baseline is not null)
+        {
+            WriteShapeReason(console, "baseline", report.Baseline);
+        }
+
         console.WriteLine();
         FindingsView.Render(console, report.Findings);
+    }
+
+    private static void WriteShapeReason(IAnsiConsole console, string which, RelationshipProfile profile)
+    {
+        if (profile.ShapeReason is { Length: > 0 } reason)
+        {
+            console.MarkupLine($"[bold]Shape of the {which} extract: {JsonContract.Name(profile.Shape)}.[/] {Markup.Escape(reason)}");
+        }
     }
 
     private static Table BuildTable(ProfileReport report)
     {
         var profiles = report.Baseline is null ? [report.Current] : new[] { report.Current, report.Baseline };
-        var table = new Table().Border(TableBorder.Rounded).AddColumn(new TableColumn(string.Empty));
+        var table = new Table().Border(TableBorder.Rounded).AddColumn(new TableColumn(string.Empty).NoWrap());
         table.AddColumn(new TableColumn("[bold]current[/]").RightAligned());
         if (report.Baseline is not null)
         {

@@ -38,6 +38,12 @@ internal static class Readable
         var exponent = (int)Math.Floor(Math.Log10(magnitude)) + 1;
         var decimals = Math.Max(0, Significant - exponent);
         var rounded = Math.Round(v, decimals, MidpointRounding.AwayFromZero);
+        if (Math.Abs(rounded) >= Math.Pow(10, exponent) && decimals > 0)
+        {
+            // Rounding carried into a new digit (0.99999 -> 1.0000): one decimal fewer keeps four digits.
+            decimals--;
+            rounded = Math.Round(v, decimals, MidpointRounding.AwayFromZero);
+        }
         return rounded.ToString("N" + decimals.ToString(CultureInfo.InvariantCulture), CultureInfo.InvariantCulture);
     }
 
@@ -57,4 +63,7 @@ internal static class Readable
     /// <summary>"0.8164 [0.4244, 0.9507]".</summary>
     public static string WithInterval(double? value, double? low, double? high) =>
         low is null || high is null ? Number(value) : $"{Number(value)} [{Number(low)}, {Number(high)}]";
+
+    /// <summary>"3 (9.091%)"; the note is left out when there is none.</summary>
+    public static string WithNote(string value, string? note) => note is null ? value : $"{value} ({note})";
 }
