@@ -1,5 +1,6 @@
 using System.CommandLine;
 using System.CommandLine.Invocation;
+using System.CommandLine.Parsing;
 
 namespace DriftWatch.Cli;
 
@@ -18,7 +19,7 @@ internal static class CliApp
         "  driftwatch profile --csv today.csv --x hours --y units --baseline-csv last_month.csv";
 
     public static Task<int> RunAsync(string[] args, CancellationToken cancellationToken) =>
-        RunAsync(args, CliConsole.System(), cancellationToken);
+        RunAsync(args, CliConsole.Standard(), cancellationToken);
 
     public static async Task<int> RunAsync(string[] args, CliConsole console, CancellationToken cancellationToken)
     {
@@ -69,7 +70,7 @@ internal static class CliApp
     private static string HelpHint(ParseResult parsed)
     {
         var names = new List<string>();
-        for (var result = parsed.CommandResult; result is not null; result = result.Parent as System.CommandLine.Parsing.CommandResult)
+        for (var result = parsed.CommandResult; result is not null; result = result.Parent as CommandResult)
         {
             names.Insert(0, result.Command is RootCommand ? "driftwatch" : result.Command.Name);
         }

@@ -26,7 +26,7 @@ internal sealed class CliConsole
     /// The process console. Spectre detects colour and ANSI support itself: NO_COLOR, a dumb terminal
     /// or output redirected to a file give plain text without escape codes.
     /// </summary>
-    public static CliConsole System()
+    public static CliConsole Standard()
     {
         var ansi = AnsiConsole.Create(new AnsiConsoleSettings
         {

@@ -141,8 +141,15 @@ internal static class CsvPairReader
                 ? index
                 : throw new SourceException(
                     SourceFailure.MissingColumn,
-                    $"column '{column}' not found in {sourceName} (columns: {string.Join(", ", headers)})");
+                    $"column '{column}' not found in {sourceName} (columns: {string.Join(", ", headers)}){SeparatorHint(headers)}");
     }
+
+    // A spreadsheet saved with a decimal-comma locale separates with ';': say so instead of leaving
+    // the reader to wonder why the only "column" is the whole header line.
+    private static string SeparatorHint(IReadOnlyList<string> headers) =>
+        headers.Count == 1 && headers[0].IndexOfAny([';', '\t', '|']) >= 0
+            ? "; the file seems to use another separator than ',' (DriftWatch reads comma-separated files)"
+            : string.Empty;
 
     /// <summary>Counts one column's text cells and keeps the first, for the warning.</summary>
     private sealed class TextCells(string sourceName, string column)

@@ -163,4 +163,33 @@ public sealed class CsvPairReaderTests
             CultureInfo.CurrentUICulture = saved;
         }
     }
+
+    [Fact]
+    public void ReadFile_Utf8ByteOrderMark_HeaderStillMatches()
+    {
+        // Spreadsheet programs commonly start UTF-8 CSV exports with the byte order mark EF BB BF
+        // (Unicode Standard, §2.6 "Encoding Schemes"); it must not become part of the first column's name.
+        var path = Path.Combine(Path.GetTempPath(), "driftwatch-bom-" + Guid.NewGuid().ToString("N") + ".csv");
+        File.WriteAllBytes(path, [0xEF, 0xBB, 0xBF, .. "x,y\n1,2\n"u8.ToArray()]);
+        try
+        {
+            var extract = CsvPairReader.ReadFile(path, "x", "y", CancellationToken.None);
+
+            Assert.Equal([1.0], extract.Sample.X);
+        }
+        finally
+        {
+            File.Delete(path);
+        }
+    }
+
+    [Fact]
+    public void Read_SemicolonSeparated_MissingColumnMessageHintsAtSeparator()
+    {
+        var ex = Assert.Throws<SourceException>(() => ReadText("x;y\n1,5;2\n"));
+
+        Assert.Equal(
+            "column 'x' not found in extract.csv (columns: x;y); the file seems to use another separator than ',' (DriftWatch reads comma-separated files)",
+            ex.Message);
+    }
 }
