@@ -51,7 +51,4 @@ internal static class CsvCell
 
         return CsvCellKind.NotANumber;
     }
-
-    public static CsvCellKind Parse(string? text, out double value) =>
-        Parse(Encoding.UTF8.GetBytes(text ?? string.Empty), out value);
 }

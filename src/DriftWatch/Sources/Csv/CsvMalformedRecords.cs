@@ -3,7 +3,7 @@ using CsvHelper;
 namespace DriftWatch.Sources.Csv;
 
 /// <summary>Collects the records CsvHelper had to recover (bad quoting, ragged rows) into one warning.</summary>
-internal sealed class MalformedRecords(string sourceName)
+internal sealed class CsvMalformedRecords(string sourceName)
 {
     private int _count;
     private CsvMalformedReason _firstReason;

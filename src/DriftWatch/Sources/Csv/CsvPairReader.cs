@@ -38,7 +38,7 @@ internal static class CsvPairReader
             throw new SourceException(SourceFailure.Unreachable, $"file not found: {path}");
         }
 
-        var malformed = new MalformedRecords(path);
+        var malformed = new CsvMalformedRecords(path);
         CsvReader csv;
         try
         {
@@ -59,12 +59,12 @@ internal static class CsvPairReader
     public static CsvPairExtract Read(TextReader text, string sourceName, string xColumn, string yColumn, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(text);
-        var malformed = new MalformedRecords(sourceName);
+        var malformed = new CsvMalformedRecords(sourceName);
         using var csv = CsvReader.Create(text, malformed.Watch(Options), leaveOpen: true);
         return Read(csv, malformed, xColumn, yColumn, cancellationToken);
     }
 
-    private static CsvPairExtract Read(CsvReader csv, MalformedRecords malformed, string xColumn, string yColumn, CancellationToken cancellationToken)
+    private static CsvPairExtract Read(CsvReader csv, CsvMalformedRecords malformed, string xColumn, string yColumn, CancellationToken cancellationToken)
     {
         var sourceName = malformed.SourceName;
         ArgumentException.ThrowIfNullOrEmpty(xColumn);
