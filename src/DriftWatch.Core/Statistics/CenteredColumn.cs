@@ -48,7 +48,8 @@ internal sealed class CenteredColumn
     {
         ArgumentNullException.ThrowIfNull(values);
         int n = values.Length;
-        var deviations = new double[n];
+        // Every element is written below (or cleared for a constant column): skip the zeroing.
+        var deviations = GC.AllocateUninitializedArray<double>(n);
         if (n == 0)
         {
             return new CenteredColumn(deviations, 0, 0, 0, 0, true);
@@ -74,6 +75,7 @@ internal sealed class CenteredColumn
         if (min == max)
         {
             // Exactly constant: the mean is the value itself, not a rounded sum divided by n.
+            Array.Clear(deviations);
             return new CenteredColumn(deviations, exponent, min * factor, 0, maxAbs * factor, true);
         }
 

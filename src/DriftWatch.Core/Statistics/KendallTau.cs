@@ -22,7 +22,7 @@ internal static class KendallTau
         }
 
         // y's dense ranks in x order; within a run of tied x, sorted by y so those pairs are no swaps.
-        var sequence = new int[n];
+        var sequence = GC.AllocateUninitializedArray<int>(n);
         for (int k = 0; k < n; k++)
         {
             sequence[k] = y.Dense[x.Order[k]];
@@ -101,7 +101,7 @@ internal static class KendallTau
         }
 
         var source = a;
-        var target = new int[n];
+        var target = GC.AllocateUninitializedArray<int>(n);
         for (int width = Block; width < n; width *= 2)
         {
             for (int lo = 0; lo < n; lo += 2 * width)
