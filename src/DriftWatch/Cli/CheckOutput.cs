@@ -1,0 +1,72 @@
+using System.Text.Json.Serialization;
+using DriftWatch.Core.Findings;
+using DriftWatch.Core.History;
+using DriftWatch.Monitoring;
+using DriftWatch.Output;
+using Spectre.Console;
+
+namespace DriftWatch.Cli;
+
+/// <summary>What <c>check</c> prints: a table for people, or JSON for a pipeline step.</summary>
+internal static class CheckOutput
+{
+    public static void RenderTable(IAnsiConsole console, IReadOnlyList<PairCheckResult> results)
+    {
+        var table = new Table().Border(TableBorder.Rounded).Title("[bold]DriftWatch check[/]");
+        table.AddColumns("pair", "status", "n", "r", "ρ", "slope", "shape", "worst finding");
+        foreach (var r in results.OrderByDescending(r => r.Status == RunStatus.Failed).ThenByDescending(r => r.WorstSeverity ?? (Severity)(-1)))
+        {
+            var p = r.Profile;
+            var worst = r.Findings.OrderByDescending(f => f.Severity).FirstOrDefault();
+            table.AddRow(
+                Markup.Escape(r.Pair.Name),
+                r.Status == RunStatus.Failed ? "[red]failed[/]" : r.HasBaseline ? "ok" : "ok [grey](no baseline yet)[/]",
+                Readable.Count(p?.NUsed),
+                Readable.Number(p?.PearsonR),
+                Readable.Number(p?.SpearmanRho),
+                Readable.Number(p?.Slope),
+                p is null ? "" : JsonContract.Name(p.Shape),
+                worst is null ? (r.Error is null ? "[green]none[/]" : "[red]check failed[/]") : SeverityStyle.Markup(worst.Severity) + " " + Markup.Escape(JsonContract.Name(worst.Kind)));
+        }
+
+        console.Write(table);
+        foreach (var r in results.Where(r => r.Error is not null))
+        {
+            console.MarkupLine($"[red]failed[/] [bold]{Markup.Escape(r.Pair.Name)}[/]: {Markup.Escape(r.Error!)}");
+        }
+
+        foreach (var r in results.Where(r => r.Findings.Count > 0))
+        {
+            console.MarkupLine($"[bold]{Markup.Escape(r.Pair.Name)}[/] ({Markup.Escape(r.Pair.X)} vs {Markup.Escape(r.Pair.Y)})");
+            FindingsView.Render(console, r.Findings);
+        }
+    }
+
+    public static CheckReportJson ToJson(IReadOnlyList<PairCheckResult> results, int exitCode) => new(
+        exitCode,
+        [.. results.Select(r => new CheckPairJson(
+            r.Pair.Name,
+            r.Pair.Source,
+            r.Status == RunStatus.Succeeded ? "succeeded" : "failed",
+            r.Error,
+            r.RunId == 0 ? null : r.RunId,
+            r.StartedAt,
+            r.HasBaseline,
+            r.Profile is null ? null : JsonContract.ToJson(r.Profile),
+            [.. r.Findings.Select(JsonContract.ToJson)]))]);
+}
+
+internal sealed record CheckReportJson(
+    [property: JsonPropertyName("exit_code")] int ExitCode,
+    [property: JsonPropertyName("pairs")] IReadOnlyList<CheckPairJson> Pairs);
+
+internal sealed record CheckPairJson(
+    [property: JsonPropertyName("pair")] string Pair,
+    [property: JsonPropertyName("source")] string Source,
+    [property: JsonPropertyName("status")] string Status,
+    [property: JsonPropertyName("error")] string? Error,
+    [property: JsonPropertyName("run_id")] long? RunId,
+    [property: JsonPropertyName("started_at")] DateTimeOffset StartedAt,
+    [property: JsonPropertyName("has_baseline")] bool HasBaseline,
+    [property: JsonPropertyName("profile")] ProfileJson? Profile,
+    [property: JsonPropertyName("findings")] IReadOnlyList<FindingJson> Findings);

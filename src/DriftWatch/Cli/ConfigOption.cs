@@ -1,0 +1,41 @@
+using System.CommandLine;
+using DriftWatch.Configuration;
+using DriftWatch.Core.Configuration;
+
+namespace DriftWatch.Cli;
+
+/// <summary>--config FILE, shared by every command that reads the YAML configuration.</summary>
+internal static class ConfigOption
+{
+    public const string DefaultPath = "config/driftwatch.yaml";
+    public const string EnvironmentVariable = "DRIFTWATCH_CONFIG";
+
+    public static Option<string?> Create() => new("--config", "-c")
+    {
+        Description = $"The YAML configuration file (default: ${EnvironmentVariable}, else {DefaultPath}).",
+        HelpName = "FILE",
+    };
+
+    /// <summary>Loads and validates the configuration; prints every error (file:line:column: key: message) and returns null on failure.</summary>
+    public static DriftWatchConfig? Load(string? path, CliConsole console)
+    {
+        ArgumentNullException.ThrowIfNull(console);
+        path ??= Environment.GetEnvironmentVariable(EnvironmentVariable);
+        path = string.IsNullOrWhiteSpace(path) ? DefaultPath : path;
+        var result = ConfigLoader.Load(path, Environment.GetEnvironmentVariable);
+        foreach (var error in result.Errors)
+        {
+            console.WriteError(error.ToString());
+        }
+
+        if (!result.Ok)
+        {
+            console.Error.WriteLine(result.Errors.Count == 1
+                ? "1 configuration error; nothing was checked."
+                : $"{result.Errors.Count} configuration errors; nothing was checked.");
+            return null;
+        }
+
+        return result.Config;
+    }
+}

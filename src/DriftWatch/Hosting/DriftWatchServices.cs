@@ -1,0 +1,45 @@
+using DriftWatch.Core.Configuration;
+using DriftWatch.Core.Profiling;
+using DriftWatch.Monitoring;
+using DriftWatch.Sources;
+using DriftWatch.Store;
+using Microsoft.Extensions.DependencyInjection;
+
+namespace DriftWatch.Hosting;
+
+/// <summary>
+/// The composition root of the flow (config → sources → checks → store → alerts), shared by the worker
+/// (<c>run</c>), one-shot commands (<c>check</c>, <c>baseline</c>, <c>history</c>) and the demo, so
+/// all of them exercise the same objects.
+/// </summary>
+internal static class DriftWatchServices
+{
+    public static IServiceCollection AddDriftWatch(this IServiceCollection services, DriftWatchConfig config, TimeProvider time)
+    {
+        ArgumentNullException.ThrowIfNull(services);
+        ArgumentNullException.ThrowIfNull(config);
+        ArgumentNullException.ThrowIfNull(time);
+        services.AddSingleton(config);
+        services.AddSingleton(time);
+        services.AddSingleton(_ => StoreFactory.CreateDatabase(config.Store));
+        services.AddSingleton<IHistoryStore>(sp => StoreFactory.CreateHistoryStore(sp.GetRequiredService<IStoreDatabase>(), config.Store));
+        services.AddSingleton<SourceFactory>();
+        services.AddSingleton<ISourceFactory>(sp => sp.GetRequiredService<SourceFactory>());
+        services.AddSingleton(sp => new BaselineService(
+            sp.GetRequiredService<IHistoryStore>(),
+            Profiler.Profile,
+            sp.GetRequiredService<Microsoft.Extensions.Logging.ILogger<BaselineService>>()));
+        services.AddSingleton<PairChecker>();
+        services.AddSingleton<MonitorCycle>();
+        services.AddSingleton<CheckPass>();
+        services.AddSingleton<CheckMetrics>();
+        return services;
+    }
+
+    /// <summary>Brings the store's schema up to date; every entry point calls it before the first read or write.</summary>
+    public static async Task MigrateStoreAsync(this IServiceProvider services, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(services);
+        await new MigrationRunner(services.GetRequiredService<IStoreDatabase>()).MigrateAsync(cancellationToken);
+    }
+}

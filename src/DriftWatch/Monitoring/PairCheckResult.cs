@@ -1,0 +1,23 @@
+using DriftWatch.Core.Configuration;
+using DriftWatch.Core.Findings;
+using DriftWatch.Core.History;
+using DriftWatch.Core.Profiling;
+
+namespace DriftWatch.Monitoring;
+
+/// <summary>What one check of one pair produced, as recorded in the store (RunId 0: the store write itself failed).</summary>
+internal sealed record PairCheckResult(
+    PairConfig Pair,
+    long RunId,
+    RunStatus Status,
+    string? Error,
+    RelationshipProfile? Profile,
+    IReadOnlyList<Finding> Findings,
+    DateTimeOffset StartedAt,
+    DateTimeOffset FinishedAt,
+    bool HasBaseline)
+{
+    public Severity? WorstSeverity => Findings.Count == 0 ? null : Findings.Max(f => f.Severity);
+
+    public TimeSpan Elapsed => FinishedAt - StartedAt;
+}

@@ -1,0 +1,96 @@
+using DriftWatch.Core.Configuration;
+using DriftWatch.Core.Findings;
+using DriftWatch.Core.History;
+using DriftWatch.Core.Profiling;
+using DriftWatch.Sources;
+using DriftWatch.Store;
+using Microsoft.Extensions.Logging;
+using Serilog.Context;
+
+namespace DriftWatch.Monitoring;
+
+/// <summary>
+/// One check of one pair: sample → profile → baseline → findings → one store transaction.
+/// The scheduler and the <c>check</c> command both come through here. A failure of the pair is recorded
+/// as a failed run and returned, never thrown: one broken pair never stops the others.
+/// </summary>
+internal sealed class PairChecker(
+    DriftWatchConfig config,
+    ISourceFactory sources,
+    IHistoryStore store,
+    BaselineService baselines,
+    TimeProvider time,
+    ILogger<PairChecker> logger)
+{
+    public async Task<PairCheckResult> CheckAsync(PairConfig pair, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(pair);
+        using var _ = LogContext.PushProperty("Pair", pair.Name);
+        var startedAt = time.GetUtcNow();
+        RelationshipProfile? profile = null;
+        IReadOnlyList<Finding> findings = [];
+        SampledPair? sampled = null;
+        StoredBaseline? baseline = null;
+        string? error = null;
+        try
+        {
+            var source = config.FindSource(pair.Source)
+                ?? throw new SourceException(SourceFailure.QueryError, $"pair '{pair.Name}': source '{pair.Source}' is not configured");
+            sampled = await sources.Create(source).SampleAsync(pair, startedAt, cancellationToken);
+            profile = Profiler.Profile(sampled.Sample, pair.Thresholds);
+            baseline = await baselines.GetOrBuildAsync(pair, startedAt, cancellationToken);
+            findings = FindingEngine.Assess(profile, sampled.Sample, baseline?.Profile, baseline?.Points, pair.Expect, pair.Thresholds, pair.X, pair.Y);
+        }
+        catch (OperationCanceledException) when (cancellationToken.IsCancellationRequested)
+        {
+            error = "check cancelled before it finished (shutdown)";
+        }
+        catch (SourceException ex)
+        {
+            error = ex.Message;
+            logger.LogWarning("Check of {Pair} failed ({Failure}): {Error}", pair.Name, ex.Failure, ex.Message);
+        }
+#pragma warning disable CA1031 // Any fault of one pair (a bug included) becomes that pair's failed run; the others go on.
+        catch (Exception ex)
+#pragma warning restore CA1031
+        {
+            error = $"internal error while checking '{pair.Name}': {ex.GetType().Name}: {ex.Message}";
+            logger.LogError(ex, "Check of {Pair} failed unexpectedly", pair.Name);
+        }
+
+        var finishedAt = time.GetUtcNow();
+        var status = error is null ? RunStatus.Succeeded : RunStatus.Failed;
+        var run = new NewRun(
+            pair.Name,
+            startedAt,
+            finishedAt,
+            status,
+            error,
+            status == RunStatus.Succeeded ? profile : null,
+            status == RunStatus.Succeeded ? findings : [],
+            sampled?.Figures,
+            status == RunStatus.Succeeded ? sampled?.Sample : null,
+            sampled?.Method);
+        long runId = 0;
+        try
+        {
+            // The shutdown token is not passed: a finished check is worth one short write.
+            runId = await store.RecordRunAsync(run, CancellationToken.None);
+        }
+#pragma warning disable CA1031 // The store being down must not crash the worker; the next run tries again.
+        catch (Exception ex)
+#pragma warning restore CA1031
+        {
+            logger.LogError(ex, "Could not record the run of {Pair} in the store", pair.Name);
+        }
+
+        if (status == RunStatus.Succeeded)
+        {
+            logger.LogInformation(
+                "Checked {Pair} in {ElapsedMs} ms: n={Used}, r={PearsonR}, shape={Shape}, {FindingCount} findings",
+                pair.Name, (long)(finishedAt - startedAt).TotalMilliseconds, profile!.NUsed, profile.PearsonR, profile.Shape, findings.Count);
+        }
+
+        return new PairCheckResult(pair, runId, status, error, run.Profile, run.Findings, startedAt, finishedAt, baseline is not null);
+    }
+}
