@@ -48,6 +48,24 @@ public sealed class AssessTests
     }
 
     [Fact]
+    public void Assess_OneNewRowFarOutInX_ReportsLeverageInsteadOfTheShiftsItCauses()
+    {
+        var (x, y) = Scenarios.Draw(seed: 38);
+        x[0] = 1000;
+        y[0] = 0;
+        var current = new PairedSample(x, y);
+
+        var compared = FindingEngine.Compare(
+            Scenarios.Profile(current), current, Scenarios.Profile(Baseline), Baseline, PairExpectation.Default, Thresholds.Default);
+        var assessed = Assess(current);
+
+        // The raw comparison sees r and the slope collapse; without that row they are the baseline's.
+        Assert.Contains(compared, f => f.Kind == FindingKind.CorrelationShift);
+        Assert.Contains(compared, f => f.Kind == FindingKind.SlopeShift);
+        Assert.Equal([FindingKind.LeverageAppeared], assessed.Select(f => f.Kind));
+    }
+
+    [Fact]
     public void Assess_SeveralFindings_AreOrderedBySeverityWorstFirst()
     {
         var (x, y) = Scenarios.Draw(seed: 34, n: 600, xMean: 65, slope: -2, intercept: 210);
