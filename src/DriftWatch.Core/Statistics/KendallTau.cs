@@ -50,7 +50,7 @@ internal static class KendallTau
 
         long swaps = CountInversions(sequence);
         double numerator = (double)(n0 - n1 - n2 + n3) - (2.0 * swaps);
-        double denominator = Math.Sqrt((double)(n0 - n1)) * Math.Sqrt((double)(n0 - n2));
+        double denominator = Math.Sqrt((double)(n0 - n1) * (n0 - n2));
         return Math.Clamp(numerator / denominator, -1.0, 1.0);
     }
 
