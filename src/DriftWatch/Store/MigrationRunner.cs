@@ -63,7 +63,8 @@ internal sealed class MigrationRunner(IStoreDatabase database)
     internal static IReadOnlyList<MigrationScript> LoadScripts(StoreDialect dialect)
     {
         var assembly = typeof(MigrationRunner).Assembly;
-        var prefix = $"{assembly.GetName().Name}.Store.Migrations.{dialect.ToString().ToLowerInvariant()}.";
+        // Resource names start with the root namespace (DriftWatch), not the assembly name (driftwatch).
+        var prefix = $"{typeof(MigrationRunner).Namespace}.Migrations.{dialect.ToString().ToLowerInvariant()}.";
         var scripts = new List<MigrationScript>();
         foreach (var resource in assembly.GetManifestResourceNames().Where(n => n.StartsWith(prefix, StringComparison.Ordinal) && n.EndsWith(".sql", StringComparison.Ordinal)))
         {
