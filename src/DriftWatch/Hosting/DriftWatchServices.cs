@@ -1,9 +1,13 @@
+using DriftWatch.Alerts;
+using DriftWatch.Alerts.Email;
+using DriftWatch.Alerts.File;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Profiling;
 using DriftWatch.Monitoring;
 using DriftWatch.Sources;
 using DriftWatch.Store;
 using Microsoft.Extensions.DependencyInjection;
+using Microsoft.Extensions.Logging;
 
 namespace DriftWatch.Hosting;
 
@@ -28,11 +32,30 @@ internal static class DriftWatchServices
         services.AddSingleton(sp => new BaselineService(
             sp.GetRequiredService<IHistoryStore>(),
             Profiler.Profile,
-            sp.GetRequiredService<Microsoft.Extensions.Logging.ILogger<BaselineService>>()));
+            sp.GetRequiredService<ILogger<BaselineService>>()));
         services.AddSingleton<PairChecker>();
         services.AddSingleton<MonitorCycle>();
         services.AddSingleton<CheckPass>();
         services.AddSingleton<CheckMetrics>();
+        services.AddSingleton<RunFeed>();
+
+        // Alerting: lifecycle and outbox in the store, digests composed per route, channels deliver.
+        services.AddSingleton<IAlertStore>(sp => new AlertStore(sp.GetRequiredService<IStoreDatabase>()));
+        services.AddSingleton(config.Alerting);
+        services.AddSingleton<OutboxSignal>();
+        services.AddSingleton(new OutboxOptions());
+        services.AddSingleton<IAlertChannel>(_ => new SmtpAlertChannel(config.Alerting.Smtp));
+        services.AddSingleton<IAlertChannel, FileAlertChannel>();
+        services.AddSingleton(sp => new OutboxDispatcher(
+            sp.GetRequiredService<IAlertStore>(),
+            sp.GetServices<IAlertChannel>(),
+            config.Alerting,
+            sp.GetRequiredService<OutboxOptions>(),
+            sp.GetRequiredService<TimeProvider>(),
+            Random.Shared,
+            sp.GetRequiredService<ILogger<OutboxDispatcher>>()));
+        services.AddSingleton<AlertCycleProcessor>();
+        services.AddSingleton<AlertEvaluation>();
         return services;
     }
 
