@@ -69,6 +69,7 @@ internal static class CliApp
         root.Subcommands.Add(ValidateCommand.Create(console));
         root.Subcommands.Add(HistoryCommand.Create(console));
         root.Subcommands.Add(BaselineCommand.Create(console));
+        root.Subcommands.Add(AlertsCommand.Create(console));
         return root;
     }
 
