@@ -1,6 +1,4 @@
 using DriftWatch.Alerts;
-using DriftWatch.Alerts.Email;
-using DriftWatch.Alerts.File;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Profiling;
 using DriftWatch.Monitoring;
@@ -39,22 +37,11 @@ internal static class DriftWatchServices
         services.AddSingleton<CheckMetrics>();
         services.AddSingleton<RunFeed>();
 
+        // Hosted services start in registration order: the schema is migrated before anything reads the store.
+        services.AddHostedService<StoreMigrationService>();
+
         // Alerting: lifecycle and outbox in the store, digests composed per route, channels deliver.
-        services.AddSingleton<IAlertStore>(sp => new AlertStore(sp.GetRequiredService<IStoreDatabase>()));
-        services.AddSingleton(config.Alerting);
-        services.AddSingleton<OutboxSignal>();
-        services.AddSingleton(new OutboxOptions());
-        services.AddSingleton<IAlertChannel>(_ => new SmtpAlertChannel(config.Alerting.Smtp));
-        services.AddSingleton<IAlertChannel, FileAlertChannel>();
-        services.AddSingleton(sp => new OutboxDispatcher(
-            sp.GetRequiredService<IAlertStore>(),
-            sp.GetServices<IAlertChannel>(),
-            config.Alerting,
-            sp.GetRequiredService<OutboxOptions>(),
-            sp.GetRequiredService<TimeProvider>(),
-            Random.Shared,
-            sp.GetRequiredService<ILogger<OutboxDispatcher>>()));
-        services.AddSingleton<AlertCycleProcessor>();
+        services.AddDriftWatchAlerting(config.Alerting);
         services.AddSingleton<AlertEvaluation>();
         return services;
     }

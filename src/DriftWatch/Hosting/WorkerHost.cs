@@ -1,4 +1,3 @@
-using DriftWatch.Alerts;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Scheduling;
 using Microsoft.AspNetCore.Builder;
@@ -33,7 +32,6 @@ internal static class WorkerHost
 
         var time = options.Time ?? TimeProvider.System;
         builder.Services.AddDriftWatch(config, time);
-        builder.Services.AddHostedService<StoreMigrationService>();
         builder.Services.AddQuartz(quartz =>
         {
             quartz.UseTimeProvider(time);
@@ -44,7 +42,6 @@ internal static class WorkerHost
             // SIGTERM: running checks get the grace period to finish, then their tokens are cancelled.
             q.WaitForJobsToComplete = true;
         });
-        builder.Services.AddHostedService<OutboxDispatchService>();
 
         var urls = options.Urls ?? $"http://{config.Dashboard.Bind}:{config.Dashboard.Port}";
         builder.WebHost.UseUrls(config.Dashboard.Enabled ? urls : "http://127.0.0.1:0");
