@@ -20,6 +20,9 @@ public sealed record Thresholds
     public const double DefaultSampleShrinkRatio = 0.5;
     public const double DefaultNoRelationshipR = 0.2;
     public const double DefaultMinOffsetShiftSds = 1.0;
+    public const double DefaultLeverageHat = 0.5;
+    public const double DefaultStrongRelationshipR = 0.5;
+    public const double DefaultMinKsStatistic = 0.1;
 
     /// <summary>Significance level for every hypothesis test in a comparison.</summary>
     public double Alpha { get; init; } = DefaultAlpha;
@@ -62,6 +65,18 @@ public sealed record Thresholds
 
     /// <summary>Minimum intercept move, in baseline residual SDs, for an offset shift.</summary>
     public double MinOffsetShiftSds { get; init; } = DefaultMinOffsetShiftSds;
+
+    /// <summary>
+    /// Hat value above which one row alone largely sets the line (Huber 1981: above 0.5 is "dangerous");
+    /// the cut is raised to 3p/n for samples so small that every row has a large hat value.
+    /// </summary>
+    public double LeverageHat { get; init; } = DefaultLeverageHat;
+
+    /// <summary>Baseline |r| at least this counts as a strong relationship that can be lost (Cohen 1988: "large").</summary>
+    public double StrongRelationshipR { get; init; } = DefaultStrongRelationshipR;
+
+    /// <summary>Minimum Kolmogorov–Smirnov distance D for a marginal shift, so huge samples do not alert on trivia.</summary>
+    public double MinKsStatistic { get; init; } = DefaultMinKsStatistic;
 
     public static Thresholds Default { get; } = new();
 }
