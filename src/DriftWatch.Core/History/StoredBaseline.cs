@@ -7,6 +7,10 @@ namespace DriftWatch.Core.History;
 /// The reference a pair is compared with: a profile of pooled points plus a bounded reservoir of those
 /// points (for plots and the Kolmogorov–Smirnov test).
 /// </summary>
+/// <param name="MeanRunUsed">
+/// Mean usable rows per pooled run (from the runs' own profiles). The pooled profile's counts describe the
+/// pool, which can be several runs' worth of points; compare a run's sample size with this instead.
+/// </param>
 public sealed record StoredBaseline(
     string Pair,
     BaselinePolicyKind Policy,
@@ -17,4 +21,5 @@ public sealed record StoredBaseline(
     int RunCount,
     RelationshipProfile Profile,
     PairedSample Points,
-    bool Accepted = false);
+    bool Accepted = false,
+    double? MeanRunUsed = null);

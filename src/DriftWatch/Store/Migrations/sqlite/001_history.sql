@@ -1,4 +1,5 @@
--- Runs, their findings and the baselines. Times are Unix milliseconds (UTC).
+-- Runs, their findings and the baselines. Times are Unix milliseconds (UTC); profile_json and
+-- source_figures_json are JSON text (snake_case); points are interleaved little-endian float64 x,y pairs.
 CREATE TABLE runs (
     id                  INTEGER PRIMARY KEY AUTOINCREMENT,
     pair                TEXT    NOT NULL,
@@ -36,5 +37,7 @@ CREATE TABLE baselines (
     run_count      INTEGER NOT NULL,
     accepted       INTEGER NOT NULL DEFAULT 0,
     profile_json   TEXT    NOT NULL,
-    points         BLOB    NOT NULL
+    points         BLOB    NOT NULL,
+    -- Mean usable rows per pooled run: the yardstick for a run's sample size (the pool is larger).
+    mean_run_used  DOUBLE PRECISION
 );

@@ -1,0 +1,21 @@
+using DriftWatch.Core.Configuration;
+
+namespace DriftWatch.Alerts;
+
+/// <summary>A stored outbox row. <paramref name="Mime"/> is null in listings that do not load it.</summary>
+internal sealed record OutboxEntry(
+    long Id,
+    string MessageId,
+    string Route,
+    ChannelKind Channel,
+    DateTimeOffset CreatedAt,
+    DateTimeOffset NextAttemptAt,
+    int Attempts,
+    string? LastError,
+    DateTimeOffset? SentAt,
+    string Subject,
+    IReadOnlyList<string> Recipients,
+    byte[]? Mime)
+{
+    public bool IsSent => SentAt is not null;
+}

@@ -1,0 +1,257 @@
+using System.Data;
+using System.Globalization;
+using DriftWatch.Core.Configuration;
+using DriftWatch.Core.History;
+using DriftWatch.Core.Profiling;
+using Npgsql;
+using Npgsql.PostgresTypes;
+using NpgsqlTypes;
+
+namespace DriftWatch.Sources.Postgres;
+
+/// <summary>
+/// Reads pairs from PostgreSQL. Each check is one session and one REPEATABLE READ, READ ONLY transaction
+/// (so the push-down figures and the sample see the same snapshot) with a local statement timeout; the
+/// session is rolled back at the end. At most <see cref="SourceConfig.MaxConcurrentQueries"/> checks of this
+/// source run at once.
+/// </summary>
+internal sealed class PostgresPairSource : IPairSource, IAsyncDisposable
+{
+    /// <summary>The application_name every source session carries, so a DBA can see and limit the monitor.</summary>
+    public const string ApplicationName = "driftwatch";
+
+    // Types whose values are numbers; a domain counts by its base type.
+    private static readonly HashSet<string> NumericTypes = ["int2", "int4", "int8", "float4", "float8", "numeric"];
+    private static readonly HashSet<string> TimeTypes = ["date", "timestamp", "timestamptz"];
+
+    private readonly NpgsqlDataSource _dataSource;
+    private readonly SemaphoreSlim _gate;
+    private readonly string _endpoint;
+
+    public PostgresPairSource(SourceConfig config)
+    {
+        ArgumentNullException.ThrowIfNull(config);
+        Config = config;
+        var builder = new NpgsqlConnectionStringBuilder(config.ConnectionString)
+        {
+            ApplicationName = ApplicationName,
+            // The server's statement_timeout decides; the client waits a little longer so the server's clear error wins.
+            CommandTimeout = config.StatementTimeout <= TimeSpan.Zero ? 0 : (int)Math.Ceiling(config.StatementTimeout.TotalSeconds) + 5,
+        };
+        _endpoint = $"{builder.Host}:{builder.Port.ToString(CultureInfo.InvariantCulture)}";
+        _dataSource = NpgsqlDataSource.Create(builder);
+        _gate = new SemaphoreSlim(Math.Max(1, config.MaxConcurrentQueries));
+    }
+
+    public SourceConfig Config { get; }
+
+    public async Task<SampledPair> SampleAsync(PairConfig pair, DateTimeOffset now, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(pair);
+        var target = PairTarget.From(pair);
+        return await InSessionAsync(pair, target, async (connection, ct) =>
+        {
+            var from = pair.Window is null ? (DateTimeOffset?)null : now - pair.Window.Last;
+            var sql = new PostgresPairSql(target, from, now);
+            await CheckColumnsAsync(connection, sql, pair, target, ct);
+            var figures = await ReadFiguresAsync(connection, sql, ct);
+
+            var needsEstimate = target.IsTable && pair.Sample.Method is SampleMethod.Auto or SampleMethod.Tablesample;
+            var estimate = needsEstimate ? await EstimateRowsAsync(connection, target.Table!, ct) : null;
+            var plan = SamplePlanner.Choose(pair.Sample, figures.RowCount, estimate, pair.Window is not null || target.Where is not null);
+            if (pair.Sample.Seed is { } seed && plan.Draw != SampleDraw.All)
+            {
+                await ExecuteAsync(connection, "SELECT setseed($1)", p => p.Add(SeedFraction(seed), NpgsqlDbType.Double), ct);
+            }
+
+            var sample = await ReadSampleAsync(connection, sql, plan, pair.Sample, ct);
+            return new SampledPair(sample, figures, Describe(plan, pair.Sample, sample));
+        }, cancellationToken);
+    }
+
+    public async Task ValidateAsync(PairConfig pair, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(pair);
+        var target = PairTarget.From(pair);
+        await InSessionAsync(pair, target, async (connection, ct) =>
+        {
+            await CheckColumnsAsync(connection, new PostgresPairSql(target, null, null), pair, target, ct);
+            return true;
+        }, cancellationToken);
+    }
+
+    public async ValueTask DisposeAsync()
+    {
+        await _dataSource.DisposeAsync();
+        _gate.Dispose();
+    }
+
+    private async Task<T> InSessionAsync<T>(PairConfig pair, PairTarget target, Func<NpgsqlConnection, CancellationToken, Task<T>> work, CancellationToken cancellationToken)
+    {
+        await _gate.WaitAsync(cancellationToken);
+        NpgsqlConnection? connection = null;
+        try
+        {
+            try
+            {
+                connection = await _dataSource.OpenConnectionAsync(cancellationToken);
+            }
+            catch (Exception e) when (e is not OperationCanceledException || !cancellationToken.IsCancellationRequested)
+            {
+                throw PostgresErrors.Map(e, pair.Name, Config.Name, _endpoint, target: null);
+            }
+
+            try
+            {
+                await using var transaction = await connection.BeginTransactionAsync(IsolationLevel.RepeatableRead, cancellationToken);
+                await using (var batch = new NpgsqlBatch(connection))
+                {
+                    batch.BatchCommands.Add(new NpgsqlBatchCommand("SET TRANSACTION READ ONLY"));
+                    var p = new PositionalParameters();
+                    var timeout = p.Add(TimeoutText(Config.StatementTimeout), NpgsqlDbType.Text);
+                    // UTC so timestamp-without-time-zone window columns are read as UTC.
+                    batch.BatchCommands.Add(p.Command($"SELECT set_config('statement_timeout', {timeout}, true), set_config('TimeZone', 'UTC', true)"));
+                    await batch.ExecuteNonQueryAsync(cancellationToken);
+                }
+
+                var result = await work(connection, cancellationToken);
+                await transaction.RollbackAsync(cancellationToken);
+                return result;
+            }
+            catch (Exception e) when (e is not OperationCanceledException || !cancellationToken.IsCancellationRequested)
+            {
+                throw PostgresErrors.Map(e, pair.Name, Config.Name, _endpoint, target.Describe);
+            }
+        }
+        finally
+        {
+            if (connection is not null)
+            {
+                await connection.DisposeAsync();
+            }
+
+            _gate.Release();
+        }
+    }
+
+    private static async Task CheckColumnsAsync(NpgsqlConnection connection, PostgresPairSql sql, PairConfig pair, PairTarget target, CancellationToken ct)
+    {
+        var (text, parameters) = sql.Probe();
+        await using var batch = new NpgsqlBatch(connection);
+        batch.BatchCommands.Add(parameters.Command(text));
+        await using var reader = await batch.ExecuteReaderAsync(CommandBehavior.SchemaOnly, ct);
+        string[] names = pair.Window is null ? [pair.X, pair.Y] : [pair.X, pair.Y, pair.Window.Column];
+        for (var i = 0; i < names.Length; i++)
+        {
+            var type = reader.GetPostgresType(i);
+            var baseType = type is PostgresDomainType domain ? domain.BaseType : type;
+            var internalName = baseType?.InternalName ?? "unknown";
+            var isWindow = i == 2;
+            var ok = isWindow ? TimeTypes.Contains(internalName) : NumericTypes.Contains(internalName);
+            if (!ok)
+            {
+                var typeName = type?.DisplayName ?? internalName;
+                throw isWindow
+                    ? new SourceException(SourceFailure.QueryError, $"Pair '{pair.Name}' ({target.Describe}): window column {names[i]} is {typeName}; it must be a date or timestamp.")
+                    : new SourceException(SourceFailure.NonNumericColumn, $"Pair '{pair.Name}' ({target.Describe}): column {names[i]} is {typeName}, not a number.");
+            }
+        }
+    }
+
+    private static async Task<SourceFigures> ReadFiguresAsync(NpgsqlConnection connection, PostgresPairSql sql, CancellationToken ct)
+    {
+        var (text, parameters) = sql.Aggregate();
+        await using var batch = new NpgsqlBatch(connection);
+        batch.BatchCommands.Add(parameters.Command(text));
+        await using var reader = await batch.ExecuteReaderAsync(ct);
+        await reader.ReadAsync(ct);
+        return new SourceFigures(
+            reader.GetInt64(0),
+            reader.GetInt64(2),
+            reader.GetInt64(1),
+            FiniteOrNull(reader, 3),
+            FiniteOrNull(reader, 4),
+            FiniteOrNull(reader, 5),
+            FiniteOrNull(reader, 6),
+            FiniteOrNull(reader, 7),
+            FiniteOrNull(reader, 8),
+            FiniteOrNull(reader, 9));
+    }
+
+    /// <summary>The planner's row estimate, or null when the relation cannot be table-sampled (a view, a foreign table).</summary>
+    private static async Task<double?> EstimateRowsAsync(NpgsqlConnection connection, QualifiedName table, CancellationToken ct)
+    {
+        const string sql = """
+            SELECT c.relkind::text,
+                   CASE WHEN c.relkind = 'p'
+                        THEN (SELECT coalesce(sum(greatest(l.reltuples, 0)), 0)::float8
+                              FROM pg_partition_tree(c.oid) t JOIN pg_class l ON l.oid = t.relid WHERE t.isleaf)
+                        ELSE c.reltuples::float8 END
+            FROM pg_class c WHERE c.oid = to_regclass($1)
+            """;
+        await using var batch = new NpgsqlBatch(connection);
+        var p = new PositionalParameters();
+        p.Add(table.Quoted, NpgsqlDbType.Text);
+        batch.BatchCommands.Add(p.Command(sql));
+        await using var reader = await batch.ExecuteReaderAsync(ct);
+        if (!await reader.ReadAsync(ct))
+        {
+            return null;
+        }
+
+        var kind = reader.GetString(0);
+        return kind is "r" or "m" or "p" ? reader.GetDouble(1) : null;
+    }
+
+    private static async Task<PairedSample> ReadSampleAsync(NpgsqlConnection connection, PostgresPairSql sql, SamplePlan plan, SampleSpec spec, CancellationToken ct)
+    {
+        var (text, parameters) = sql.Sample(plan, spec.Rows, spec.Seed, spec.Bernoulli);
+        await using var batch = new NpgsqlBatch(connection);
+        batch.BatchCommands.Add(parameters.Command(text));
+        await using var reader = await batch.ExecuteReaderAsync(CommandBehavior.SequentialAccess, ct);
+        var builder = new PairedSampleBuilder(plan.Draw == SampleDraw.All ? 0 : spec.Rows);
+        while (await reader.ReadAsync(ct))
+        {
+            double? x = reader.IsDBNull(0) ? null : reader.GetDouble(0);
+            double? y = reader.IsDBNull(1) ? null : reader.GetDouble(1);
+            builder.Add(x, y);
+        }
+
+        return builder.Build();
+    }
+
+    private static async Task ExecuteAsync(NpgsqlConnection connection, string sql, Action<PositionalParameters> bind, CancellationToken ct)
+    {
+        var p = new PositionalParameters();
+        bind(p);
+        await using var batch = new NpgsqlBatch(connection);
+        batch.BatchCommands.Add(p.Command(sql));
+        await batch.ExecuteNonQueryAsync(ct);
+    }
+
+    private static string Describe(SamplePlan plan, SampleSpec spec, PairedSample sample)
+    {
+        var rows = sample.RowCount.ToString(CultureInfo.InvariantCulture);
+        var text = plan.Draw switch
+        {
+            SampleDraw.All => $"all {rows}",
+            SampleDraw.Random => $"random {rows}",
+            _ => $"tablesample {(spec.Bernoulli ? "bernoulli" : "system")} {SamplePlanner.FormatPercent(plan.Percent!.Value)}% {rows}",
+        };
+        if (spec.Seed is { } seed && plan.Draw != SampleDraw.All)
+        {
+            text += " seed " + seed.ToString(CultureInfo.InvariantCulture);
+        }
+
+        return plan.Note is null ? text : $"{text} ({plan.Note})";
+    }
+
+    // setseed takes a value in [-1, 1].
+    private static double SeedFraction(int seed) => Math.Clamp(seed / (double)int.MaxValue, -1.0, 1.0);
+
+    private static string TimeoutText(TimeSpan timeout) =>
+        timeout <= TimeSpan.Zero ? "0" : ((long)Math.Ceiling(timeout.TotalMilliseconds)).ToString(CultureInfo.InvariantCulture);
+
+    private static double? FiniteOrNull(NpgsqlDataReader reader, int ordinal) =>
+        reader.IsDBNull(ordinal) ? null : reader.GetDouble(ordinal) is var v && double.IsFinite(v) ? v : null;
+}

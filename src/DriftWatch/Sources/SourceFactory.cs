@@ -1,0 +1,47 @@
+using System.Collections.Concurrent;
+using DriftWatch.Core.Configuration;
+using DriftWatch.Sources.Postgres;
+using DriftWatch.Sources.Sqlite;
+
+namespace DriftWatch.Sources;
+
+/// <summary>
+/// The one place a source kind is registered. Returns one adapter per source configuration, cached, so the
+/// adapter's connection pool and concurrency limit are shared by every pair of that source. A changed
+/// configuration (a reload) gets a fresh adapter.
+/// </summary>
+internal sealed class SourceFactory : ISourceFactory, IAsyncDisposable
+{
+    private readonly ConcurrentDictionary<SourceConfig, Lazy<IPairSource>> _sources = new();
+
+    public IPairSource Create(SourceConfig source)
+    {
+        ArgumentNullException.ThrowIfNull(source);
+        return _sources.GetOrAdd(source, s => new Lazy<IPairSource>(() => Build(s))).Value;
+    }
+
+    public async ValueTask DisposeAsync()
+    {
+        foreach (var source in _sources.Values.Where(l => l.IsValueCreated).Select(l => l.Value))
+        {
+            switch (source)
+            {
+                case IAsyncDisposable asyncDisposable:
+                    await asyncDisposable.DisposeAsync();
+                    break;
+                case IDisposable disposable:
+                    disposable.Dispose();
+                    break;
+            }
+        }
+
+        _sources.Clear();
+    }
+
+    private static IPairSource Build(SourceConfig source) => source.Kind switch
+    {
+        SourceKind.Postgres => new PostgresPairSource(source),
+        SourceKind.Sqlite => new SqlitePairSource(source),
+        _ => throw new ArgumentOutOfRangeException(nameof(source), source.Kind, $"Source '{source.Name}' has an unknown kind."),
+    };
+}

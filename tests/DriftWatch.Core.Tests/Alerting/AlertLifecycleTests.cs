@@ -1,0 +1,304 @@
+using DriftWatch.Core.Alerting;
+using DriftWatch.Core.Configuration;
+using DriftWatch.Core.Findings;
+
+namespace DriftWatch.Core.Tests.Alerting;
+
+// The lifecycle rules under test are DriftWatch's own specification (docs and AlertingConfig defaults);
+// persistence before firing and re-notify intervals are common practice in alerting, the numbers are ours.
+public sealed class AlertLifecycleTests
+{
+    private static readonly DateTimeOffset T0 = new(2026, 3, 2, 8, 0, 0, TimeSpan.Zero);
+
+    [Fact]
+    public void Evaluate_CriticalFinding_FiresOnTheFirstRun()
+    {
+        var driver = new Driver();
+
+        var decision = driver.Run(T0, Ok("orders", Critical(FindingKind.BecamePerfect)));
+
+        var alert = Assert.Single(decision.Changes);
+        Assert.Equal(AlertStatus.Firing, alert.Status);
+        Assert.Equal(T0, alert.FiredAt);
+        Assert.Equal(T0, alert.LastNotifiedAt);
+        var notice = Assert.Single(decision.Notifications);
+        Assert.Equal(NotificationKind.Fired, notice.Kind);
+        Assert.Same(alert, notice.Alert);
+    }
+
+    [Fact]
+    public void Evaluate_Warning_StaysPendingForOneRunAndFiresOnTheSecond()
+    {
+        var driver = new Driver();
+
+        var first = driver.Run(T0, Ok("orders", Warning(FindingKind.SlopeShift)));
+        var second = driver.Run(T0.AddHours(1), Ok("orders", Warning(FindingKind.SlopeShift)));
+
+        Assert.Equal(AlertStatus.Pending, Assert.Single(first.Changes).Status);
+        Assert.Empty(first.Notifications);
+        var fired = Assert.Single(second.Changes);
+        Assert.Equal(AlertStatus.Firing, fired.Status);
+        Assert.Equal(2, fired.ConsecutiveRuns);
+        Assert.Equal(T0, fired.FirstSeen);
+        Assert.Equal(NotificationKind.Fired, Assert.Single(second.Notifications).Kind);
+    }
+
+    [Fact]
+    public void Evaluate_WarningPersistenceThree_FiresOnlyOnTheThirdRun()
+    {
+        var driver = new Driver(new AlertingConfig { WarningPersistence = 3 });
+
+        var runs = Enumerable.Range(0, 3).Select(i => driver.Run(T0.AddHours(i), Ok("orders", Warning(FindingKind.SlopeShift)))).ToArray();
+
+        Assert.Equal([0, 0, 1], runs.Select(r => r.Notifications.Count));
+    }
+
+    [Fact]
+    public void Evaluate_PendingWarningThenCleanRun_ResolvesSilently()
+    {
+        var driver = new Driver();
+        driver.Run(T0, Ok("orders", Warning(FindingKind.SlopeShift)));
+
+        var clean = driver.Run(T0.AddHours(1), Ok("orders"));
+
+        var resolved = Assert.Single(clean.Changes);
+        Assert.Equal(AlertStatus.Resolved, resolved.Status);
+        Assert.Equal(T0.AddHours(1), resolved.ResolvedAt);
+        Assert.Empty(clean.Notifications);
+    }
+
+    [Fact]
+    public void Evaluate_InfoFinding_NeverFiresNorNotifies()
+    {
+        var driver = new Driver();
+
+        var runs = Enumerable.Range(0, 5).Select(i => driver.Run(T0.AddDays(i), Ok("orders", new Finding(FindingKind.Curvature, Severity.Info, 0.001, 0.03, "slight bend")))).ToArray();
+
+        Assert.All(runs, r => Assert.Empty(r.Notifications));
+        var last = Assert.Single(runs[^1].Changes);
+        Assert.Equal(AlertStatus.Pending, last.Status);
+        Assert.Equal(5, last.ConsecutiveRuns);
+    }
+
+    [Fact]
+    public void Evaluate_StillFiring_RenotifiesOnlyOnceTheIntervalHasPassed()
+    {
+        var driver = new Driver();
+        driver.Run(T0, Ok("orders", Critical(FindingKind.SignFlip)));
+
+        var early = driver.Run(T0.AddHours(23), Ok("orders", Critical(FindingKind.SignFlip)));
+        var due = driver.Run(T0.AddHours(24), Ok("orders", Critical(FindingKind.SignFlip)));
+        var afterRenotify = driver.Run(T0.AddHours(30), Ok("orders", Critical(FindingKind.SignFlip)));
+
+        Assert.Empty(early.Notifications);
+        var renotified = Assert.Single(due.Notifications);
+        Assert.Equal(NotificationKind.Renotified, renotified.Kind);
+        Assert.Equal(T0.AddHours(24), renotified.Alert.LastNotifiedAt);
+        Assert.Equal(T0, renotified.Alert.FiredAt);
+        Assert.Empty(afterRenotify.Notifications);
+    }
+
+    [Fact]
+    public void Evaluate_CleanRunAfterTheInterval_SendsRecoveryNotRenotify()
+    {
+        var driver = new Driver();
+        driver.Run(T0, Ok("orders", Critical(FindingKind.SignFlip)));
+
+        var clean = driver.Run(T0.AddHours(25), Ok("orders"));
+
+        var notice = Assert.Single(clean.Notifications);
+        Assert.Equal(NotificationKind.Resolved, notice.Kind);
+        Assert.Equal(AlertStatus.Resolved, notice.Alert.Status);
+        Assert.Equal(T0.AddHours(25), notice.Alert.ResolvedAt);
+        Assert.Empty(driver.Open);
+    }
+
+    [Fact]
+    public void Evaluate_KindReturnsAfterResolution_OpensANewAlert()
+    {
+        var driver = new Driver();
+        driver.Run(T0, Ok("orders", Critical(FindingKind.SignFlip)));
+        driver.Run(T0.AddHours(1), Ok("orders"));
+
+        var again = driver.Run(T0.AddHours(2), Ok("orders", Critical(FindingKind.SignFlip)));
+
+        var alert = Assert.Single(again.Changes);
+        Assert.Equal(0, alert.Id);
+        Assert.Equal(T0.AddHours(2), alert.FirstSeen);
+        Assert.Equal(NotificationKind.Fired, Assert.Single(again.Notifications).Kind);
+        Assert.Equal(2, driver.All.Count);
+    }
+
+    [Fact]
+    public void Evaluate_SnoozedPair_TracksStateButNotifiesNothing_ThenAnnouncesAfterTheSnooze()
+    {
+        var driver = new Driver();
+        driver.Snooze("orders", T0.AddHours(12));
+
+        var during = driver.Run(T0, Ok("orders", Critical(FindingKind.BecamePerfect)));
+        var after = driver.Run(T0.AddHours(13), Ok("orders", Critical(FindingKind.BecamePerfect)));
+
+        var tracked = Assert.Single(during.Changes);
+        Assert.Equal(AlertStatus.Firing, tracked.Status);
+        Assert.Null(tracked.LastNotifiedAt);
+        Assert.Empty(during.Notifications);
+        Assert.Equal(NotificationKind.Fired, Assert.Single(after.Notifications).Kind);
+    }
+
+    [Fact]
+    public void Evaluate_SnoozedPair_ResolvesWithoutRecoveryNotice()
+    {
+        var driver = new Driver();
+        driver.Run(T0, Ok("orders", Critical(FindingKind.BecamePerfect)));
+        driver.Snooze("orders", T0.AddDays(1));
+
+        var clean = driver.Run(T0.AddHours(2), Ok("orders"));
+
+        Assert.Equal(AlertStatus.Resolved, Assert.Single(clean.Changes).Status);
+        Assert.Empty(clean.Notifications);
+    }
+
+    [Fact]
+    public void Evaluate_SnoozeOfAnotherPair_DoesNotSuppress()
+    {
+        var driver = new Driver();
+        driver.Snooze("invoices", T0.AddDays(1));
+
+        var decision = driver.Run(T0, Ok("orders", Critical(FindingKind.BecamePerfect)));
+
+        Assert.Single(decision.Notifications);
+    }
+
+    [Fact]
+    public void Evaluate_AcknowledgedAlert_IsNotRenotifiedButStillResolvesWithRecovery()
+    {
+        var driver = new Driver();
+        driver.Run(T0, Ok("orders", Critical(FindingKind.SignFlip)));
+        driver.Ack("orders", FindingKind.SignFlip, T0.AddHours(1));
+
+        var later = driver.Run(T0.AddHours(48), Ok("orders", Critical(FindingKind.SignFlip)));
+        var clean = driver.Run(T0.AddHours(49), Ok("orders"));
+
+        Assert.Empty(later.Notifications);
+        Assert.Equal(AlertStatus.Firing, Assert.Single(later.Changes).Status);
+        var notice = Assert.Single(clean.Notifications);
+        Assert.Equal(NotificationKind.Resolved, notice.Kind);
+        Assert.Equal(T0.AddHours(1), notice.Alert.AckedAt);
+    }
+
+    [Fact]
+    public void Evaluate_FiringWarningBecomesCritical_NotifiesEscalationAtOnce()
+    {
+        var driver = new Driver();
+        driver.Run(T0, Ok("orders", Warning(FindingKind.CorrelationShift)));
+        driver.Run(T0.AddHours(1), Ok("orders", Warning(FindingKind.CorrelationShift)));
+
+        var worse = driver.Run(T0.AddHours(2), Ok("orders", Critical(FindingKind.CorrelationShift)));
+
+        var notice = Assert.Single(worse.Notifications);
+        Assert.Equal(NotificationKind.Escalated, notice.Kind);
+        Assert.Equal(Severity.Critical, notice.Alert.Severity);
+    }
+
+    [Fact]
+    public void Evaluate_SeveralFindingsOfOneKind_MakeOneAlertWithTheWorst()
+    {
+        var driver = new Driver();
+
+        var decision = driver.Run(T0, Ok("orders", Warning(FindingKind.Outliers, "few"), Critical(FindingKind.Outliers, "many")));
+
+        var alert = Assert.Single(decision.Changes);
+        Assert.Equal(Severity.Critical, alert.Severity);
+        Assert.Equal("many", alert.Message);
+    }
+
+    [Fact]
+    public void Evaluate_CheckFailing_FiresAfterKFailuresAndResolvesOnSuccess()
+    {
+        var driver = new Driver(new AlertingConfig { CheckFailingAfter = 3 });
+
+        var failures = Enumerable.Range(1, 3).Select(k => driver.Run(T0.AddHours(k), PairOutcome.Failure("orders", k, k, $"timeout #{k}"))).ToArray();
+        var success = driver.Run(T0.AddHours(4), Ok("orders"));
+
+        Assert.Equal([0, 0, 1], failures.Select(f => f.Notifications.Count));
+        var fired = failures[2].Notifications[0].Alert;
+        Assert.Equal(FindingKind.CheckFailing, fired.Kind);
+        Assert.Equal(Severity.Critical, fired.Severity);
+        Assert.Equal(3, fired.ConsecutiveRuns);
+        Assert.Equal("timeout #3", fired.Message);
+        var recovery = Assert.Single(success.Notifications);
+        Assert.Equal(NotificationKind.Resolved, recovery.Kind);
+        Assert.Equal(FindingKind.CheckFailing, recovery.Alert.Kind);
+    }
+
+    [Fact]
+    public void Evaluate_FailedCheck_LeavesThePairsOtherAlertsAlone()
+    {
+        var driver = new Driver();
+        driver.Run(T0, Ok("orders", Critical(FindingKind.SignFlip)));
+
+        var failed = driver.Run(T0.AddHours(30), PairOutcome.Failure("orders", 9, 1, "connection refused"));
+
+        var change = Assert.Single(failed.Changes);
+        Assert.Equal(FindingKind.CheckFailing, change.Kind);
+        Assert.Equal(AlertStatus.Pending, change.Status);
+        Assert.Empty(failed.Notifications);
+        Assert.Contains(driver.Open, a => a.Kind == FindingKind.SignFlip && a.Status == AlertStatus.Firing);
+    }
+
+    [Fact]
+    public void Evaluate_OnlyPairsInTheCycle_AreTouched()
+    {
+        var driver = new Driver();
+        driver.Run(T0, Ok("orders", Critical(FindingKind.SignFlip)));
+
+        var other = driver.Run(T0.AddHours(1), Ok("invoices"));
+
+        Assert.Empty(other.Changes);
+        Assert.Single(driver.Open);
+    }
+
+    private static PairOutcome Ok(string pair, params Finding[] findings) => PairOutcome.Success(pair, 1, findings);
+
+    private static Finding Critical(FindingKind kind, string message = "critical change") => new(kind, Severity.Critical, null, 1.0, message);
+
+    private static Finding Warning(FindingKind kind, string message = "warning change") => new(kind, Severity.Warning, 0.001, 0.3, message);
+
+    /// <summary>Plays the store's part: keeps states between cycles, assigns ids, records acks and snoozes.</summary>
+    private sealed class Driver(AlertingConfig? config = null)
+    {
+        private readonly AlertingConfig _config = config ?? new AlertingConfig();
+        private readonly Dictionary<string, DateTimeOffset> _snoozes = [];
+        private long _nextId = 1;
+
+        public List<AlertState> All { get; } = [];
+
+        public IReadOnlyList<AlertState> Open => [.. All.Where(a => a.IsOpen)];
+
+        public CycleDecision Run(DateTimeOffset now, params PairOutcome[] outcomes)
+        {
+            var decision = AlertLifecycle.Evaluate(outcomes, Open, _snoozes, _config, now);
+            foreach (var state in decision.Changes)
+            {
+                if (state.Id == 0)
+                {
+                    All.Add(state with { Id = _nextId++ });
+                }
+                else
+                {
+                    All[All.FindIndex(a => a.Id == state.Id)] = state;
+                }
+            }
+
+            return decision;
+        }
+
+        public void Snooze(string pair, DateTimeOffset until) => _snoozes[pair] = until;
+
+        public void Ack(string pair, FindingKind kind, DateTimeOffset at)
+        {
+            var index = All.FindIndex(a => a.IsOpen && a.Pair == pair && a.Kind == kind);
+            All[index] = All[index] with { AckedAt = at };
+        }
+    }
+}

@@ -1,0 +1,70 @@
+using DriftWatch.Plots;
+
+namespace DriftWatch.Tests.Plots;
+
+public sealed class ScatterPlotRendererTests
+{
+    private static ScatterPlotInput Input(string x = "declared_kg", string y = "weighed_kg") =>
+        new(x, y, AnscombeData.Set1, AnscombeData.Fit, AnscombeData.Set3, AnscombeData.Fit, "parcel weights");
+
+    [Fact]
+    public void RenderSvg_NamesBothAxesAfterTheColumns_AndLabelsTheLegend()
+    {
+        var svg = ScatterPlotRenderer.RenderSvg(Input());
+
+        var texts = SvgText.Of(svg);
+        Assert.Contains("declared_kg", texts);
+        Assert.Contains("weighed_kg", texts);
+        Assert.Contains("parcel weights", texts);
+        // Legend entries: both samples with their sizes, both fitted lines with Anscombe's published fit.
+        Assert.Contains("baseline points (n = 11)", texts);
+        Assert.Contains("current points (n = 11)", texts);
+        Assert.Contains("baseline fit: y = 3 + 0.5·x", texts);
+        Assert.Contains("current fit: y = 3 + 0.5·x", texts);
+    }
+
+    [Fact]
+    public void RenderSvg_DrawsEveryPointOfBothSeries()
+    {
+        var svg = ScatterPlotRenderer.RenderSvg(Input());
+
+        // ScottPlot's SVG canvas writes each marker as an <ellipse>; 11 + 11 data points plus one legend symbol per series.
+        var ellipses = System.Text.RegularExpressions.Regex.Count(svg, "<ellipse ");
+        Assert.Equal(11 + 11 + 2, ellipses);
+    }
+
+    [Fact]
+    public void RenderSvg_HostileColumnName_IsEscaped()
+    {
+        var svg = ScatterPlotRenderer.RenderSvg(Input(x: "<script>alert(1)</script>"));
+
+        Assert.DoesNotContain("<script>", svg, StringComparison.OrdinalIgnoreCase);
+        Assert.Contains("<script>alert(1)</script>", SvgText.Of(svg));
+    }
+
+    [Fact]
+    public void RenderPng_DecodesWithTheRequestedSize_AndShowsGreyAndColouredPoints()
+    {
+        var png = ScatterPlotRenderer.RenderPng(Input(), 500, 320);
+
+        var (width, height) = PngImage.AssertValid(png);
+        Assert.Equal((500, 320), (width, height));
+        // The current series is teal (blue well above red), the baseline grey (channels equal, mid-tone).
+        Assert.True(PngImage.Count(png, c => c.Blue - c.Red > 60 && c.Green - c.Red > 40) > 50, "no coloured current points");
+        Assert.True(PngImage.Count(png, c => Math.Abs(c.Red - c.Blue) < 8 && c.Red is > 150 and < 215) > 50, "no grey baseline points");
+    }
+
+    [Fact]
+    public void RenderPng_WithoutAnyPoints_StillRendersAxesAndANote()
+    {
+        var input = new ScatterPlotInput("first_col", "second_col", null, null, null, null);
+
+        var png = ScatterPlotRenderer.RenderPng(input);
+        var svg = ScatterPlotRenderer.RenderSvg(input);
+
+        Assert.Equal((ScatterPlotRenderer.DefaultWidth, ScatterPlotRenderer.DefaultHeight), PngImage.AssertValid(png));
+        // A blank image would pass the size check; the texts prove the render ran to the end.
+        Assert.Contains("no sampled points to show", SvgText.Of(svg));
+        Assert.Contains("first_col", SvgText.Of(svg));
+    }
+}
