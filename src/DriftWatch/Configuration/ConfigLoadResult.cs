@@ -1,0 +1,9 @@
+using DriftWatch.Core.Configuration;
+
+namespace DriftWatch.Configuration;
+
+/// <summary>The outcome of reading a configuration: a config when there is no error, otherwise every error found.</summary>
+internal sealed record ConfigLoadResult(DriftWatchConfig? Config, IReadOnlyList<ConfigError> Errors)
+{
+    public bool Ok => Errors.Count == 0 && Config is not null;
+}

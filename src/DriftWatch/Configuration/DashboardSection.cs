@@ -1,0 +1,60 @@
+using System.Net;
+using DriftWatch.Core.Configuration;
+
+namespace DriftWatch.Configuration;
+
+/// <summary><c>dashboard:</c> the history web UI. Reachable from other machines only with an access token.</summary>
+internal static class DashboardSection
+{
+    /// <summary>A token shorter than this is guessable; 16 characters of a random generator are not.</summary>
+    public const int MinAccessTokenLength = 16;
+
+    public static DashboardConfig Read(MappingReader? reader)
+    {
+        var defaults = new DashboardConfig();
+        if (reader is null)
+        {
+            return defaults;
+        }
+
+        var enabled = reader.Bool("enabled") ?? defaults.Enabled;
+        var bind = reader.Text("bind") ?? defaults.Bind;
+        var port = reader.Int("port", 1, 65_535) ?? defaults.Port;
+        var token = reader.Text("access_token", secret: true);
+        reader.Done();
+        var loopback = IsLoopback(bind, out var valid);
+        if (!valid)
+        {
+            reader.Error("bind", $"must be an IP address (127.0.0.1, ::1, 0.0.0.0, ::) or localhost, was '{bind}'");
+        }
+
+        if (token is not null && token.Length < MinAccessTokenLength)
+        {
+            reader.Error("access_token", $"is too short: at least {MinAccessTokenLength} characters (value hidden)");
+        }
+
+        if (enabled && valid && !loopback && token is null && !reader.Has("access_token"))
+        {
+            reader.Error("bind", $"'{bind}' is reachable from other machines; set dashboard.access_token (e.g. ${{DRIFTWATCH_DASHBOARD_TOKEN}}) or bind to 127.0.0.1");
+        }
+
+        return new DashboardConfig { Enabled = enabled, Bind = bind, Port = port, AccessToken = token };
+    }
+
+    private static bool IsLoopback(string bind, out bool valid)
+    {
+        valid = true;
+        if (string.Equals(bind, "localhost", StringComparison.OrdinalIgnoreCase))
+        {
+            return true;
+        }
+
+        if (IPAddress.TryParse(bind, out var address))
+        {
+            return IPAddress.IsLoopback(address);
+        }
+
+        valid = false;
+        return false;
+    }
+}

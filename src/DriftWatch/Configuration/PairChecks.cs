@@ -1,0 +1,31 @@
+using DriftWatch.Core.Configuration;
+
+namespace DriftWatch.Configuration;
+
+/// <summary>Checks of a pair's effective settings against its source and the store, after defaults are applied.</summary>
+internal static class PairChecks
+{
+    public static void Check(MappingReader reader, PairConfig pair, IReadOnlyList<SourceConfig> sources, StoreConfig store)
+    {
+        var source = sources.FirstOrDefault(s => string.Equals(s.Name, pair.Source, StringComparison.Ordinal));
+        if (pair.Sample.Method == SampleMethod.Tablesample)
+        {
+            var origin = reader.Has("sample") ? "" : " (the method comes from defaults.sample)";
+            if (pair.Query is not null)
+            {
+                reader.Error("sample", $"method tablesample samples a table; a pair with a query needs auto, random or all{origin}");
+            }
+            else if (source is { Kind: SourceKind.Sqlite })
+            {
+                reader.Error("sample", $"method tablesample needs a postgres source; '{source.Name}' is sqlite{origin}");
+            }
+        }
+
+        if (pair.Baseline.Kind == BaselinePolicyKind.Rolling && pair.Baseline.RollingPeriod > store.PointsRetention)
+        {
+            var where = reader.Has("baseline") ? "baseline" : "name";
+            reader.Error(where,
+                $"a rolling baseline of {DurationSyntax.Format(pair.Baseline.RollingPeriod)} is longer than store.points_retention ({DurationSyntax.Format(store.PointsRetention)}); the points it pools would already be deleted");
+        }
+    }
+}

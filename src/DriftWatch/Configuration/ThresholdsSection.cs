@@ -1,0 +1,53 @@
+using DriftWatch.Core.Statistics;
+
+namespace DriftWatch.Configuration;
+
+/// <summary>
+/// <c>thresholds:</c> one snake_case key per member of <see cref="Thresholds"/>, each with the range that makes
+/// sense for it. Read over a starting set, so a pair's keys merge one by one over the defaults'.
+/// A test checks that the table covers every member and that each key sets its own member.
+/// </summary>
+internal static class ThresholdsSection
+{
+    private static readonly NumberRange CorrelationSpan = new(0, true, 2, true);
+
+    internal static readonly (string Key, NumberRange Range, Func<Thresholds, double, Thresholds> Set)[] Entries =
+    [
+        ("alpha", NumberRange.OpenUnit, (t, v) => t with { Alpha = v }),
+        ("outlier_t", NumberRange.Positive, (t, v) => t with { OutlierT = v }),
+        ("exact_relative_tolerance", new NumberRange(0, true, 1, false), (t, v) => t with { ExactRelativeTolerance = v }),
+        ("min_correlation_change", CorrelationSpan, (t, v) => t with { MinCorrelationChange = v }),
+        ("min_slope_ratio_change", NumberRange.NonNegative, (t, v) => t with { MinSlopeRatioChange = v }),
+        ("unit_factor_tolerance", new NumberRange(0, true, 1, false), (t, v) => t with { UnitFactorTolerance = v }),
+        ("curvature_min_r2_gain", NumberRange.Fraction, (t, v) => t with { CurvatureMinR2Gain = v }),
+        ("min_outlier_rate_increase", NumberRange.Fraction, (t, v) => t with { MinOutlierRateIncrease = v }),
+        ("max_outlier_rate", NumberRange.Fraction, (t, v) => t with { MaxOutlierRate = v }),
+        ("leverage_cooks_distance", NumberRange.Positive, (t, v) => t with { LeverageCooksDistance = v }),
+        ("min_null_rate_increase", NumberRange.Fraction, (t, v) => t with { MinNullRateIncrease = v }),
+        ("sample_shrink_ratio", NumberRange.Fraction, (t, v) => t with { SampleShrinkRatio = v }),
+        ("no_relationship_r", NumberRange.Fraction, (t, v) => t with { NoRelationshipR = v }),
+        ("min_offset_shift_sds", NumberRange.NonNegative, (t, v) => t with { MinOffsetShiftSds = v }),
+    ];
+
+    public static IEnumerable<string> Keys => Entries.Select(e => e.Key);
+
+    public static Thresholds Read(MappingReader? reader, Thresholds start)
+    {
+        if (reader is null)
+        {
+            return start;
+        }
+
+        var result = start;
+        foreach (var (key, range, set) in Entries)
+        {
+            if (reader.Double(key, range) is { } value)
+            {
+                result = set(result, value);
+            }
+        }
+
+        reader.Done();
+        return result;
+    }
+}
