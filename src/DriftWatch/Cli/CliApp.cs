@@ -64,6 +64,7 @@ internal static class CliApp
     {
         var root = new RootCommand(RootDescription);
         root.Subcommands.Add(ProfileCommand.Create(console));
+        root.Subcommands.Add(ReportCommand.Create(console));
         return root;
     }
 
