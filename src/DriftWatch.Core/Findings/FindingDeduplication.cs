@@ -1,9 +1,13 @@
+using DriftWatch.Core.Profiling;
+using DriftWatch.Core.Statistics;
+
 namespace DriftWatch.Core.Findings;
 
 /// <summary>
 /// Drops a finding when a stronger one explains it, so one event raises one alert: a column that
 /// became a copy also "gained correlation"; a sign flip is also a correlation shift; a unit change
-/// moves the offset at the baseline's mean too.
+/// moves the offset at the baseline's mean too; one new row of extreme leverage drags r, the slope
+/// and the curvature with it.
 /// </summary>
 internal static class FindingDeduplication
 {
@@ -17,7 +21,12 @@ internal static class FindingDeduplication
         (FindingKind.LeverageAppeared, [FindingKind.SinglePointLeverage]),
     ];
 
-    public static IReadOnlyList<Finding> Merge(IReadOnlyList<Finding> own, IReadOnlyList<Finding> comparison)
+    /// <summary>What a single dominant row can fake on its own.</summary>
+    private static readonly FindingKind[] LeverageEchoes =
+        [FindingKind.CorrelationShift, FindingKind.SlopeShift, FindingKind.OffsetShift, FindingKind.CurvatureAppeared, FindingKind.Curvature];
+
+    public static IReadOnlyList<Finding> Merge(
+        IReadOnlyList<Finding> own, IReadOnlyList<Finding> comparison, RelationshipProfile current, RelationshipProfile? baseline, Thresholds t)
     {
         var all = new List<Finding>(comparison);
 
@@ -37,6 +46,15 @@ internal static class FindingDeduplication
             {
                 all.RemoveAll(f => explains.Contains(f.Kind));
             }
+        }
+
+        // When r without the new dominant row is back within MinCorrelationChange of the baseline's,
+        // the row explains the shifts; the leverage finding names it and says what r would be.
+        if (kinds.Contains(FindingKind.LeverageAppeared)
+            && current.PearsonRWithoutTopInfluence is { } rWithout && baseline?.PearsonR is { } r0
+            && Math.Abs(rWithout - r0) < t.MinCorrelationChange)
+        {
+            all.RemoveAll(f => LeverageEchoes.Contains(f.Kind));
         }
 
         // OrderByDescending is stable: within a severity, comparison findings first, in rule order.

@@ -68,6 +68,6 @@ public static class FindingEngine
         var comparison = baseline is null
             ? []
             : ComparisonFindings.Of(current, currentSample, baseline, baselineSample ?? PairedSample.Empty, expect, t, names);
-        return FindingDeduplication.Merge(own, comparison);
+        return FindingDeduplication.Merge(own, comparison, current, baseline, t);
     }
 }

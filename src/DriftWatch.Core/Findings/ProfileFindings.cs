@@ -45,12 +45,12 @@ internal static class ProfileFindings
                 $"{c.Y} bends away from a straight line in {c.X} (quadratic term {Numbers.P(p.QuadraticP)}, {Numbers.Percent(p.QuadraticR2Gain ?? 0)} more variance explained): r and the slope misdescribe a curved relationship."));
         }
 
-        if (p.OutlierRate is { } rate && rate > t.MaxOutlierRate && p.OutlierCount > 0)
+        if (ShapeRules.HasOutliers(p, t) && p.OutlierRate is { } rate)
         {
             findings.Add(new Finding(
                 FindingKind.Outliers,
                 Severity.Warning,
-                null,
+                p.OutlierTestP,
                 rate,
                 $"{Numbers.Count(p.OutlierCount ?? 0)} of {Numbers.Count(p.NUsed)} rows ({Numbers.Percent(rate)}) lie more than {Numbers.Sig(t.OutlierT)} studentized residuals off the line of {c.Y} on {c.X} (more than {Numbers.Percent(t.MaxOutlierRate)}): check them for unit, entry or join errors."));
         }

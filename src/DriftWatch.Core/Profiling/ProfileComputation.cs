@@ -119,6 +119,7 @@ internal static class ProfileComputation
             QuadraticR2Gain = quadratic?.R2Gain,
             OutlierCount = influence.OutlierCount,
             OutlierRate = influence.OutlierCount is { } k ? (double)k / n : null,
+            OutlierTestP = influence.OutlierTestP(n),
             MaxCooksDistance = influence.MaxCooksDistance,
             CooksOverThreshold = influence.CooksOverThreshold,
             MaxLeverage = influence.MaxLeverage,

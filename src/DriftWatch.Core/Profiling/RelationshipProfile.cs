@@ -35,6 +35,13 @@ public sealed record RelationshipProfile
     public double? QuadraticR2Gain { get; init; }
     public int? OutlierCount { get; init; }
     public double? OutlierRate { get; init; }
+
+    /// <summary>
+    /// Bonferroni p of the most extreme externally studentized residual: n · P(|t(n − 3)| ≥ max |tᵢ|),
+    /// capped at 1 (the outlier test of Cook and Weisberg 1982). Small means at least one row is an
+    /// outlier beyond what normal errors produce in a sample of this size.
+    /// </summary>
+    public double? OutlierTestP { get; init; }
     public double? MaxCooksDistance { get; init; }
     public int? CooksOverThreshold { get; init; }
     public double? MaxLeverage { get; init; }

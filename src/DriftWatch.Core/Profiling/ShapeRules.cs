@@ -39,9 +39,9 @@ internal static class ShapeRules
             return (Shape.Leverage, $"One row has leverage {Numbers.Sig(p.MaxLeverage)} and largely sets the slope on its own ({without}).");
         }
 
-        if (p.OutlierRate is { } rate && rate > t.MaxOutlierRate && p.OutlierCount > 0)
+        if (HasOutliers(p, t))
         {
-            return (Shape.Outlier, $"{Numbers.Count(p.OutlierCount ?? 0)} of {Numbers.Count(p.NUsed)} rows ({Numbers.Percent(rate)}) lie more than {Numbers.Sig(t.OutlierT)} studentized residuals off the line.");
+            return (Shape.Outlier, $"{Numbers.Count(p.OutlierCount ?? 0)} of {Numbers.Count(p.NUsed)} rows ({Numbers.Percent(p.OutlierRate ?? 0)}) lie more than {Numbers.Sig(t.OutlierT)} studentized residuals off the line, beyond what normal scatter explains (outlier test {Numbers.P(p.OutlierTestP)}).");
         }
 
         if (p.MaxCooksDistance is { } d && d > t.LeverageCooksDistance)
@@ -61,6 +61,14 @@ internal static class ShapeRules
 
         return (Shape.Linear, $"A straight line describes the pair (r = {Numbers.Sig(r)}, R² = {Numbers.Sig(p.RSquared)}) with no curvature, outlier cluster or dominant row.");
     }
+
+    /// <summary>
+    /// More than MaxOutlierRate of the rows are outliers and the most extreme one is significant by
+    /// the Bonferroni outlier test: a lone |t| of 3 in a few dozen rows is ordinary scatter
+    /// (NIST's Norris data has one).
+    /// </summary>
+    public static bool HasOutliers(RelationshipProfile p, Thresholds t) =>
+        p.OutlierRate is { } rate && rate > t.MaxOutlierRate && p.OutlierCount > 0 && p.OutlierTestP < t.Alpha;
 
     public static bool IsCurved(RelationshipProfile p, Thresholds t) =>
         p.QuadraticP is { } qp && qp < t.Alpha && (p.QuadraticR2Gain ?? 0) >= t.CurvatureMinR2Gain;

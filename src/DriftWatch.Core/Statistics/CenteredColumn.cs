@@ -48,7 +48,8 @@ internal sealed class CenteredColumn
     {
         ArgumentNullException.ThrowIfNull(values);
         int n = values.Length;
-        var deviations = new double[n];
+        // Every element is written below (or cleared for a constant column): skip the zeroing.
+        var deviations = GC.AllocateUninitializedArray<double>(n);
         if (n == 0)
         {
             return new CenteredColumn(deviations, 0, 0, 0, 0, true);
@@ -69,11 +70,13 @@ internal sealed class CenteredColumn
         }
 
         double maxAbs = Math.Max(Math.Abs(min), Math.Abs(max));
-        int exponent = maxAbs == 0 ? 0 : Math.ILogB(maxAbs) + 1;
+        // Subnormal columns would need a factor above 2^1023, which overflows; 2^1021 is enough there.
+        int exponent = maxAbs == 0 ? 0 : Math.Max(Math.ILogB(maxAbs) + 1, -1021);
         double factor = Math.ScaleB(1.0, -exponent);
         if (min == max)
         {
             // Exactly constant: the mean is the value itself, not a rounded sum divided by n.
+            Array.Clear(deviations);
             return new CenteredColumn(deviations, exponent, min * factor, 0, maxAbs * factor, true);
         }
 

@@ -17,6 +17,23 @@ internal sealed record Influence(
     bool TopInfluenceIsOutlier,
     double? MaxAbsStudentized)
 {
+    /// <summary>Bonferroni p of the largest |t| on n − p − 1 df (Cook and Weisberg 1982); 0 for an infinite t.</summary>
+    public double? OutlierTestP(int n)
+    {
+        if (MaxAbsStudentized is not { } t)
+        {
+            return null;
+        }
+
+        if (double.IsPositiveInfinity(t))
+        {
+            return 0;
+        }
+
+        double p = 2 * MathNet.Numerics.Distributions.StudentT.CDF(0, 1, n - Parameters - 1, -t);
+        return double.IsNaN(p) ? 1 : Math.Clamp(n * p, 0, 1);
+    }
+
     /// <summary>1 − h below this counts as h = 1.</summary>
     private const double UnitLeverageGap = 1e-10;
 
@@ -102,6 +119,6 @@ internal sealed record Influence(
             UnitLeverageRows: unitLeverage,
             TopInfluenceRow: topRow,
             TopInfluenceIsOutlier: topIsOutlier,
-            MaxAbsStudentized: hasExternal && !exactFit && double.IsFinite(maxT2) ? Math.Sqrt(maxT2) : null);
+            MaxAbsStudentized: hasExternal && !exactFit ? Math.Sqrt(maxT2) : null);
     }
 }

@@ -1,3 +1,5 @@
+using System.Buffers;
+
 namespace DriftWatch.Core.Statistics;
 
 /// <summary>
@@ -22,7 +24,7 @@ internal static class KendallTau
         }
 
         // y's dense ranks in x order; within a run of tied x, sorted by y so those pairs are no swaps.
-        var sequence = new int[n];
+        var sequence = GC.AllocateUninitializedArray<int>(n);
         for (int k = 0; k < n; k++)
         {
             sequence[k] = y.Dense[x.Order[k]];
@@ -50,7 +52,7 @@ internal static class KendallTau
 
         long swaps = CountInversions(sequence);
         double numerator = (double)(n0 - n1 - n2 + n3) - (2.0 * swaps);
-        double denominator = Math.Sqrt((double)(n0 - n1)) * Math.Sqrt((double)(n0 - n2));
+        double denominator = Math.Sqrt((double)(n0 - n1) * (n0 - n2));
         return Math.Clamp(numerator / denominator, -1.0, 1.0);
     }
 
@@ -101,7 +103,8 @@ internal static class KendallTau
         }
 
         var source = a;
-        var target = new int[n];
+        var buffer = ArrayPool<int>.Shared.Rent(n);
+        var target = buffer;
         for (int width = Block; width < n; width *= 2)
         {
             for (int lo = 0; lo < n; lo += 2 * width)
@@ -142,6 +145,7 @@ internal static class KendallTau
             Array.Copy(source, a, n);
         }
 
+        ArrayPool<int>.Shared.Return(buffer);
         return inversions;
     }
 }

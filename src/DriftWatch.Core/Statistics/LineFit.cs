@@ -54,7 +54,7 @@ internal sealed class LineFit
         }
 
         double b = sxy / sxx;
-        var residuals = new double[n];
+        var residuals = GC.AllocateUninitializedArray<double>(n);
         double sse = 0, maxAbs = 0;
         for (int i = 0; i < n; i++)
         {

@@ -30,7 +30,7 @@ internal sealed record QuadraticFit(double Coefficient, double PValue, double R2
         }
 
         double invSd = 1 / Math.Sqrt(line.Sxx / n);
-        var design = new double[3 * n];
+        var design = GC.AllocateUninitializedArray<double>(3 * n);
         double columnNorm2 = 0;
         for (int i = 0; i < n; i++)
         {

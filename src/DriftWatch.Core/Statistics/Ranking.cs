@@ -35,23 +35,16 @@ internal sealed class Ranking
     {
         ArgumentNullException.ThrowIfNull(values);
         int n = values.Length;
-        var keys = (double[])values.Clone();
-        var order = new int[n];
-        for (int i = 0; i < n; i++)
-        {
-            order[i] = i;
-        }
-
-        Array.Sort(keys, order);
-        var midRanks = new double[n];
-        var dense = new int[n];
+        var (keys, order) = RadixSort.Sort(values);
+        var midRanks = GC.AllocateUninitializedArray<double>(n);
+        var dense = GC.AllocateUninitializedArray<int>(n);
         int distinct = 0;
         long tiedPairs = 0;
         int start = 0;
         while (start < n)
         {
             int end = start + 1;
-            double key = keys[start];
+            ulong key = keys[start];
             while (end < n && keys[end] == key)
             {
                 end++;

@@ -63,7 +63,8 @@ internal sealed class MigrationRunner(IStoreDatabase database)
     internal static IReadOnlyList<MigrationScript> LoadScripts(StoreDialect dialect)
     {
         var assembly = typeof(MigrationRunner).Assembly;
-        var prefix = $"{assembly.GetName().Name}.Store.Migrations.{dialect.ToString().ToLowerInvariant()}.";
+        // Resource names start with the root namespace (DriftWatch), not the assembly name (driftwatch).
+        var prefix = $"{typeof(MigrationRunner).Namespace}.Migrations.{dialect.ToString().ToLowerInvariant()}.";
         var scripts = new List<MigrationScript>();
         foreach (var resource in assembly.GetManifestResourceNames().Where(n => n.StartsWith(prefix, StringComparison.Ordinal) && n.EndsWith(".sql", StringComparison.Ordinal)))
         {
@@ -72,6 +73,12 @@ internal sealed class MigrationRunner(IStoreDatabase database)
             var digits = new string(name.TrimStart('_').TakeWhile(char.IsAsciiDigit).ToArray());
             var version = int.Parse(digits, CultureInfo.InvariantCulture);
             scripts.Add(new MigrationScript(version, name.TrimStart('_'), ReadResource(assembly, resource)));
+        }
+
+        if (scripts.Count == 0)
+        {
+            // A build that lost its embedded scripts must not start against an empty schema.
+            throw new InvalidOperationException($"No embedded migrations found under {prefix}*.sql.");
         }
 
         return [.. scripts.OrderBy(s => s.Version)];

@@ -9,12 +9,15 @@ namespace DriftWatch.Sources.Postgres;
 /// </summary>
 internal sealed class PostgresPairSql(PairTarget target, DateTimeOffset? windowFrom, DateTimeOffset? windowTo)
 {
-    /// <summary>Zero rows, but the server resolves the relation, the columns and the filter, and reports their types.</summary>
+    /// <summary>
+    /// Zero rows, but the server resolves the relation, the columns and the filter, and reports their types.
+    /// Without the window condition, which would fail on a window column of the wrong type before we can name it.
+    /// </summary>
     public (string Sql, PositionalParameters Parameters) Probe()
     {
         var p = new PositionalParameters();
         var window = target.WindowColumn is null ? string.Empty : ", " + Column(target.WindowColumn);
-        return ($"SELECT {Column(target.X)}, {Column(target.Y)}{window} FROM {From()}{Where(p)} LIMIT 0", p);
+        return ($"SELECT {Column(target.X)}, {Column(target.Y)}{window} FROM {From()}{Where(p, withWindow: false)} LIMIT 0", p);
     }
 
     /// <summary>Exact counts and linear figures over the whole window, in one scan.</summary>
@@ -74,10 +77,10 @@ internal sealed class PostgresPairSql(PairTarget target, DateTimeOffset? windowF
 
     private string Column(string quoted) => target.IsTable ? quoted : "q." + quoted;
 
-    private string Where(PositionalParameters p)
+    private string Where(PositionalParameters p, bool withWindow = true)
     {
         var conditions = new List<string>();
-        if (target.WindowColumn is not null && windowFrom is { } from && windowTo is { } to)
+        if (withWindow && target.WindowColumn is not null && windowFrom is { } from && windowTo is { } to)
         {
             var column = Column(target.WindowColumn);
             conditions.Add($"{column} >= {p.Add(from.UtcDateTime, NpgsqlDbType.TimestampTz)} AND {column} < {p.Add(to.UtcDateTime, NpgsqlDbType.TimestampTz)}");
