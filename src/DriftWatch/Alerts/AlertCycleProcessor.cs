@@ -1,0 +1,89 @@
+using DriftWatch.Alerts.Email;
+using DriftWatch.Core.Alerting;
+using DriftWatch.Core.Configuration;
+using DriftWatch.Store;
+using Microsoft.Extensions.Logging;
+
+namespace DriftWatch.Alerts;
+
+/// <summary>
+/// One alerting cycle, called by the monitor after it has recorded the runs: false-discovery step over the
+/// cycle's p-value findings, lifecycle, routing, one digest per route, and the states plus the outbox rows in
+/// one transaction. Sending is the dispatcher's job (woken here); an SMTP outage cannot lose an alert.
+/// </summary>
+internal sealed class AlertCycleProcessor(
+    IAlertStore store,
+    AlertingConfig config,
+    TimeProvider time,
+    OutboxSignal signal,
+    ILogger<AlertCycleProcessor> logger)
+{
+    /// <param name="outcomes">This cycle's checks, findings as the comparison produced them (the FDR step is applied here).</param>
+    /// <param name="contexts">Per pair name: its configuration and the profiles and points a digest shows.</param>
+    public async Task<AlertCycleResult> ProcessAsync(
+        IReadOnlyList<PairOutcome> outcomes,
+        IReadOnlyDictionary<string, AlertPairContext> contexts,
+        CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(outcomes);
+        ArgumentNullException.ThrowIfNull(contexts);
+        var now = time.GetUtcNow();
+        var filtered = FalseDiscoveryControl.FilterCycle(outcomes, config.FdrQ);
+        LogDropped(outcomes, filtered);
+
+        var pairs = outcomes.Select(o => o.Pair).Distinct(StringComparer.Ordinal).ToArray();
+        var open = await store.GetOpenAlertsAsync(pairs, cancellationToken);
+        var snoozes = await store.GetActiveSnoozesAsync(now, cancellationToken);
+        var decision = AlertLifecycle.Evaluate(filtered, open, snoozes, config, now);
+
+        var items = decision.Notifications
+            .Select(n => new DigestItem(n, contexts.TryGetValue(n.Alert.Pair, out var context) ? context : AlertPairContext.Unknown(n.Alert.Pair)))
+            .ToArray();
+        var outbox = new List<OutboxMessage>();
+        var options = new DigestOptions(config.Smtp?.From ?? DigestOptions.DefaultFrom, config.PublicUrl);
+        foreach (var digest in AlertRouter.Route(items, config.Routes))
+        {
+            if (Compose(digest, options, now) is { } message)
+            {
+                outbox.Add(message);
+            }
+        }
+
+        var saved = await store.ApplyCycleAsync(decision, outbox, cancellationToken);
+        if (outbox.Count > 0)
+        {
+            signal.Notify();
+        }
+
+        foreach (var notice in decision.Notifications)
+        {
+            logger.LogInformation("Alert {Pair}/{Kind} {Transition} ({Severity})", notice.Alert.Pair, notice.Alert.Kind, notice.Kind, notice.Alert.Severity);
+        }
+
+        return new AlertCycleResult(decision, saved, outbox);
+    }
+
+    private OutboxMessage? Compose(RoutedDigest digest, DigestOptions options, DateTimeOffset now)
+    {
+        // Per route: one route's bad configuration (an unparsable recipient, say) never silences the others.
+        try
+        {
+            using var message = DigestComposer.Compose(digest, options, now);
+            return DigestComposer.ToOutbox(message, digest, now);
+        }
+        catch (Exception ex) when (ex is not OperationCanceledException)
+        {
+            logger.LogError(ex, "Could not compose the alert digest for route {Route} ({Count} alerts); it is not queued", digest.Route.Name, digest.Items.Count);
+            return null;
+        }
+    }
+
+    private void LogDropped(IReadOnlyList<PairOutcome> before, IReadOnlyList<PairOutcome> after)
+    {
+        var dropped = before.Sum(o => o.Findings.Count) - after.Sum(o => o.Findings.Count);
+        if (dropped > 0)
+        {
+            logger.LogInformation("False-discovery step (q = {Q}) held back {Dropped} findings from alerting; they stay in the history", config.FdrQ, dropped);
+        }
+    }
+}

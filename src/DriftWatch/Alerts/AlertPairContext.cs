@@ -1,0 +1,21 @@
+using DriftWatch.Core.Configuration;
+using DriftWatch.Core.Profiling;
+
+namespace DriftWatch.Alerts;
+
+/// <summary>
+/// Everything a digest says about one pair, filled by the monitor from the run it just made and the stored
+/// baseline: the composer never queries anything itself. Points may be null (failed run, no baseline yet,
+/// pruned); the message then shows what it has.
+/// </summary>
+internal sealed record AlertPairContext(
+    PairConfig Pair,
+    RelationshipProfile? Current,
+    PairedSample? CurrentPoints,
+    RelationshipProfile? Baseline,
+    PairedSample? BaselinePoints)
+{
+    /// <summary>For a notification whose pair is no longer configured: names only, no figures.</summary>
+    public static AlertPairContext Unknown(string pair) =>
+        new(new PairConfig { Name = pair, Source = "(not configured)", X = "x", Y = "y" }, null, null, null, null);
+}

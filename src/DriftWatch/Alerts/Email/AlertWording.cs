@@ -1,0 +1,58 @@
+using DriftWatch.Core.Alerting;
+using DriftWatch.Core.Findings;
+
+namespace DriftWatch.Alerts.Email;
+
+/// <summary>The words a digest uses for kinds, transitions and severities (our own wording).</summary>
+internal static class AlertWording
+{
+    /// <summary>A verb phrase that follows the pair's name: "orders_vs_refunds became perfect".</summary>
+    public static string Phrase(FindingKind kind) => kind switch
+    {
+        FindingKind.PerfectRelationship => "is an exact function",
+        FindingKind.Curvature => "is curved",
+        FindingKind.Outliers => "has outliers",
+        FindingKind.SinglePointLeverage => "hangs on a single point",
+        FindingKind.ExactnessLost => "stopped being exact",
+        FindingKind.BecamePerfect => "became perfect",
+        FindingKind.CorrelationShift => "changed correlation",
+        FindingKind.SignFlip => "flipped sign",
+        FindingKind.RelationshipLost => "lost its relationship",
+        FindingKind.SlopeShift => "changed slope",
+        FindingKind.OffsetShift => "moved its offset",
+        FindingKind.CurvatureAppeared => "became curved",
+        FindingKind.OutlierSurge => "gained outliers",
+        FindingKind.LeverageAppeared => "now hangs on a single point",
+        FindingKind.NullSurge => "gained nulls",
+        FindingKind.SampleShrank => "shrank",
+        FindingKind.MarginalShift => "changed distribution",
+        FindingKind.CheckFailing => "cannot be checked",
+        _ => kind.ToString(),
+    };
+
+    public static string Transition(NotificationKind kind) => kind switch
+    {
+        NotificationKind.Fired => "new",
+        NotificationKind.Escalated => "escalated",
+        NotificationKind.Renotified => "still firing",
+        NotificationKind.Resolved => "resolved",
+        _ => kind.ToString(),
+    };
+
+    public static string SeverityLabel(Severity severity) => severity switch
+    {
+        Severity.Critical => "CRITICAL",
+        Severity.Warning => "WARNING",
+        _ => "INFO",
+    };
+
+    /// <summary>Badge colours for the HTML body (text stays readable without them).</summary>
+    public static string SeverityColour(Severity severity) => severity switch
+    {
+        Severity.Critical => "#B91C1C",
+        Severity.Warning => "#B45309",
+        _ => "#475569",
+    };
+
+    public const string ResolvedColour = "#15803D";
+}

@@ -1,0 +1,47 @@
+using DriftWatch.Core.Configuration;
+using MimeKit;
+
+namespace DriftWatch.Alerts.File;
+
+/// <summary>
+/// Writes the stored message, byte for byte, as "&lt;message-id&gt;.eml" in the route's directory: for setups
+/// without mail, and for audit. Idempotent: a retry rewrites the same file (written aside, then moved in, so a
+/// reader never sees half a message).
+/// </summary>
+internal sealed class FileAlertChannel : IAlertChannel
+{
+    public ChannelKind Kind => ChannelKind.File;
+
+    public async Task SendAsync(OutboxEntry entry, MimeMessage message, RouteConfig route, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(entry);
+        ArgumentNullException.ThrowIfNull(route);
+        if (string.IsNullOrWhiteSpace(route.Directory))
+        {
+            throw new ChannelUnavailableException($"Route '{route.Name}' writes files but has no directory configured.");
+        }
+
+        var bytes = entry.Mime ?? throw new InvalidOperationException($"Outbox entry {entry.Id} was loaded without its message.");
+        var path = PathFor(route.Directory, entry.MessageId);
+        var temporary = path + ".part";
+        try
+        {
+            Directory.CreateDirectory(route.Directory);
+            await System.IO.File.WriteAllBytesAsync(temporary, bytes, cancellationToken);
+            System.IO.File.Move(temporary, path, overwrite: true);
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+        {
+            throw new ChannelUnavailableException($"Route '{route.Name}' cannot write to {route.Directory}: {ex.Message}", ex);
+        }
+    }
+
+    /// <summary>The file for a Message-Id; characters a file name cannot hold become '_'.</summary>
+    public static string PathFor(string directory, string messageId)
+    {
+        ArgumentNullException.ThrowIfNull(messageId);
+        var invalid = Path.GetInvalidFileNameChars();
+        var name = new string([.. messageId.Trim('<', '>').Select(c => invalid.Contains(c) || c == '\\' ? '_' : c)]);
+        return Path.Combine(directory, name + ".eml");
+    }
+}

@@ -1,0 +1,51 @@
+using Microsoft.Extensions.Hosting;
+using Microsoft.Extensions.Logging;
+
+namespace DriftWatch.Alerts;
+
+/// <summary>Runs the dispatcher in the worker: at start (messages left from before a restart), after every cycle, and on a poll.</summary>
+internal sealed class OutboxDispatchService(
+    OutboxDispatcher dispatcher,
+    OutboxSignal signal,
+    OutboxOptions options,
+    TimeProvider time,
+    ILogger<OutboxDispatchService> logger) : BackgroundService
+{
+    private static readonly TimeSpan PruneEvery = TimeSpan.FromHours(1);
+
+    protected override async Task ExecuteAsync(CancellationToken stoppingToken)
+    {
+        var lastPrune = DateTimeOffset.MinValue;
+        while (!stoppingToken.IsCancellationRequested)
+        {
+            try
+            {
+                await dispatcher.DispatchDueAsync(stoppingToken);
+                if (time.GetUtcNow() - lastPrune >= PruneEvery)
+                {
+                    var pruned = await dispatcher.PruneAsync(stoppingToken);
+                    lastPrune = time.GetUtcNow();
+                    logger.LogDebug("Pruned {Count} sent messages and resolved alerts", pruned);
+                }
+            }
+            catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)
+            {
+                return;
+            }
+            catch (Exception ex)
+            {
+                // The store may be briefly unreachable; the next pass tries again, the outbox keeps everything.
+                logger.LogError(ex, "Outbox dispatch failed; retrying in {Interval}", options.PollInterval);
+            }
+
+            try
+            {
+                await signal.WaitAsync(options.PollInterval, time, stoppingToken);
+            }
+            catch (OperationCanceledException)
+            {
+                return;
+            }
+        }
+    }
+}

@@ -1,0 +1,252 @@
+using Dapper;
+using DriftWatch.Alerts;
+using DriftWatch.Core.Alerting;
+using DriftWatch.Core.Configuration;
+using DriftWatch.Core.Findings;
+using DriftWatch.Store;
+using static DriftWatch.IntegrationTests.Alerts.AlertHarness;
+
+namespace DriftWatch.IntegrationTests.Alerts;
+
+/// <summary>What every alert store must do, run against each real database engine (subclasses pick one).</summary>
+public abstract class AlertStoreContract
+{
+    private static readonly DateTimeOffset T0 = Start;
+
+    /// <summary>A freshly migrated, empty store. Calling it twice in one test gives two handles on the same database.</summary>
+    private protected abstract Task<IStoreDatabase> DatabaseAsync();
+
+    [Fact]
+    public async Task Migrate_AppliesHistoryAndAlertScripts()
+    {
+        var database = await DatabaseAsync();
+        await using var connection = await database.OpenAsync(CancellationToken.None);
+
+        var versions = await connection.QueryAsync<int>("SELECT version FROM schema_migrations ORDER BY version");
+
+        Assert.Equal([1, 2], versions);
+    }
+
+    [Fact]
+    public async Task ApplyCycle_NewAndChangedStates_RoundTripWithIds()
+    {
+        var store = new AlertStore(await DatabaseAsync());
+        var pending = State("orders", FindingKind.SlopeShift, Severity.Warning, AlertStatus.Pending);
+        var firing = State("orders", FindingKind.BecamePerfect, Severity.Critical, AlertStatus.Firing) with { FiredAt = T0, LastNotifiedAt = T0 };
+        var other = State("invoices", FindingKind.NullSurge, Severity.Warning, AlertStatus.Pending);
+
+        var saved = await store.ApplyCycleAsync(new CycleDecision(T0, [pending, firing, other], []), [], CancellationToken.None);
+        var later = saved[0] with { Status = AlertStatus.Firing, ConsecutiveRuns = 2, LastSeen = T0.AddHours(1), FiredAt = T0.AddHours(1), Message = "slope doubled" };
+        await store.ApplyCycleAsync(new CycleDecision(T0.AddHours(1), [later], []), [], CancellationToken.None);
+
+        Assert.All(saved, s => Assert.True(s.Id > 0));
+        Assert.Equal(3, saved.Select(s => s.Id).Distinct().Count());
+        var open = await store.GetOpenAlertsAsync(["orders"], CancellationToken.None);
+        Assert.Equal([later, saved[1]], open.OrderBy(a => a.Id));
+        Assert.Equal(3, (await store.GetOpenAlertsAsync(null, CancellationToken.None)).Count);
+    }
+
+    [Fact]
+    public async Task ApplyCycle_OutboxInsertFails_StoresNoAlertChangeEither()
+    {
+        var store = new AlertStore(await DatabaseAsync());
+        var alert = State("orders", FindingKind.BecamePerfect, Severity.Critical, AlertStatus.Firing) with { LastNotifiedAt = T0 };
+        // A NULL subject violates the outbox's NOT NULL constraint inside the transaction.
+        var broken = new OutboxMessage("dw-broken@driftwatch.local", "team", ChannelKind.Smtp, T0, null!, [], [1, 2, 3]);
+
+        await Assert.ThrowsAnyAsync<Exception>(() => store.ApplyCycleAsync(new CycleDecision(T0, [alert], [new AlertNotification(alert, NotificationKind.Fired)]), [broken], CancellationToken.None));
+
+        Assert.Empty(await store.GetOpenAlertsAsync(null, CancellationToken.None));
+        Assert.Empty(await store.ListOutboxAsync(false, 10, CancellationToken.None));
+    }
+
+    [Fact]
+    public async Task ApplyCycle_SecondOpenAlertForTheSamePairAndKind_IsRefused()
+    {
+        var store = new AlertStore(await DatabaseAsync());
+        var alert = State("orders", FindingKind.SignFlip, Severity.Critical, AlertStatus.Firing);
+        await store.ApplyCycleAsync(new CycleDecision(T0, [alert], []), [], CancellationToken.None);
+
+        await Assert.ThrowsAnyAsync<Exception>(() => store.ApplyCycleAsync(new CycleDecision(T0, [alert with { FirstSeen = T0.AddHours(1) }], []), [], CancellationToken.None));
+
+        Assert.Single(await store.GetOpenAlertsAsync(null, CancellationToken.None));
+    }
+
+    [Fact]
+    public async Task ApplyCycle_MessageIdAlreadyQueued_IsNotQueuedTwice()
+    {
+        var store = new AlertStore(await DatabaseAsync());
+        var message = Message("dw-once@driftwatch.local");
+
+        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [message], CancellationToken.None);
+        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [message], CancellationToken.None);
+
+        var entry = Assert.Single(await store.ListOutboxAsync(false, 10, CancellationToken.None));
+        Assert.Equal(message.MessageId, entry.MessageId);
+        Assert.Equal(["a@example.org", "b@example.org"], entry.Recipients);
+        Assert.Equal(ChannelKind.Smtp, entry.Channel);
+        Assert.Null(entry.Mime);
+    }
+
+    [Fact]
+    public async Task Ack_OpenAlert_IsKeptAcrossLaterCycles_AndResolvedAlertsCannotBeAcked()
+    {
+        var store = new AlertStore(await DatabaseAsync());
+        var saved = (await store.ApplyCycleAsync(new CycleDecision(T0, [State("orders", FindingKind.SignFlip, Severity.Critical, AlertStatus.Firing)], []), [], CancellationToken.None))[0];
+
+        Assert.True(await store.AckAsync(saved.Id, T0.AddMinutes(5), CancellationToken.None));
+        // The lifecycle loaded the state before the ack: its write must not erase the ack.
+        var update = await store.ApplyCycleAsync(new CycleDecision(T0.AddHours(1), [saved with { ConsecutiveRuns = 2 }], []), [], CancellationToken.None);
+        var resolved = await store.ApplyCycleAsync(new CycleDecision(T0.AddHours(2), [update[0] with { Status = AlertStatus.Resolved, ResolvedAt = T0.AddHours(2) }], []), [], CancellationToken.None);
+
+        Assert.Equal(T0.AddMinutes(5), update[0].AckedAt);
+        Assert.Equal(T0.AddMinutes(5), (await store.GetAlertAsync(saved.Id, CancellationToken.None))!.AckedAt);
+        Assert.False(await store.AckAsync(resolved[0].Id, T0.AddHours(3), CancellationToken.None));
+        Assert.False(await store.AckAsync(999_999, T0, CancellationToken.None));
+    }
+
+    [Fact]
+    public async Task Snooze_IsActiveUntilItsEnd_ReplacedBySnoozingAgain_AndLiftedByUnsnooze()
+    {
+        var store = new AlertStore(await DatabaseAsync());
+
+        await store.SnoozeAsync("orders", T0.AddHours(2), T0, "planned migration", CancellationToken.None);
+        await store.SnoozeAsync("invoices", T0.AddHours(1), T0, null, CancellationToken.None);
+        await store.SnoozeAsync("invoices", T0.AddHours(3), T0, "longer", CancellationToken.None);
+
+        var atStart = await store.GetActiveSnoozesAsync(T0, CancellationToken.None);
+        Assert.Equal(T0.AddHours(2), atStart["orders"]);
+        Assert.Equal(T0.AddHours(3), atStart["invoices"]);
+        Assert.Equal(["invoices"], (await store.GetActiveSnoozesAsync(T0.AddHours(2), CancellationToken.None)).Keys);
+        Assert.Equal("longer", (await store.ListSnoozesAsync(T0, CancellationToken.None)).Single(s => s.Pair == "invoices").Reason);
+        Assert.True(await store.UnsnoozeAsync("invoices", CancellationToken.None));
+        Assert.Empty(await store.GetActiveSnoozesAsync(T0.AddHours(2), CancellationToken.None));
+    }
+
+    [Fact]
+    public async Task ClaimDue_LeasesEntries_SoASecondClaimGetsNothingUntilTheLeaseEnds()
+    {
+        var database = await DatabaseAsync();
+        var store = new AlertStore(database);
+        var other = new AlertStore(database);
+        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [Message("dw-1@driftwatch.local"), Message("dw-2@driftwatch.local")], CancellationToken.None);
+
+        var first = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), 10, CancellationToken.None);
+        var during = await other.ClaimDueAsync(T0.AddMinutes(4), TimeSpan.FromMinutes(5), 10, CancellationToken.None);
+        await store.MarkSentAsync(first[0].Id, T0.AddMinutes(1), CancellationToken.None);
+        var after = await other.ClaimDueAsync(T0.AddMinutes(5), TimeSpan.FromMinutes(5), 10, CancellationToken.None);
+
+        Assert.Equal(["dw-1@driftwatch.local", "dw-2@driftwatch.local"], first.Select(e => e.MessageId));
+        Assert.Equal([1, 2, 3], first[0].Mime);
+        Assert.Empty(during);
+        Assert.Equal("dw-2@driftwatch.local", Assert.Single(after).MessageId);
+    }
+
+    [Fact]
+    public async Task ClaimDue_SeveralDispatchersAtOnce_NeverShareAnEntry()
+    {
+        var database = await DatabaseAsync();
+        var store = new AlertStore(database);
+        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [.. Enumerable.Range(0, 40).Select(i => Message($"dw-{i}@driftwatch.local"))], CancellationToken.None);
+
+        // Four dispatchers (own store objects, own connections) claim in parallel until nothing is left.
+        var claimers = Enumerable.Range(0, 4).Select(async _ =>
+        {
+            var mine = new List<string>();
+            var own = new AlertStore(await ReopenAsync());
+            while (await own.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), 3, CancellationToken.None) is { Count: > 0 } batch)
+            {
+                mine.AddRange(batch.Select(e => e.MessageId));
+            }
+
+            return mine;
+        });
+        var claimed = (await Task.WhenAll(claimers)).SelectMany(c => c).ToArray();
+
+        Assert.Equal(40, claimed.Length);
+        Assert.Equal(40, claimed.Distinct(StringComparer.Ordinal).Count());
+    }
+
+    [Fact]
+    public async Task MarkFailed_RecordsTheErrorAndTheNextAttempt()
+    {
+        var store = new AlertStore(await DatabaseAsync());
+        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [Message("dw-f@driftwatch.local")], CancellationToken.None);
+        var entry = Assert.Single(await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), 10, CancellationToken.None));
+
+        await store.MarkFailedAsync(entry.Id, "connection refused", T0.AddMinutes(2), CancellationToken.None);
+
+        var stored = Assert.Single(await store.ListOutboxAsync(true, 10, CancellationToken.None));
+        Assert.Equal((1, "connection refused", T0.AddMinutes(2)), (stored.Attempts, stored.LastError, stored.NextAttemptAt));
+        Assert.Empty(await store.ClaimDueAsync(T0.AddMinutes(1), TimeSpan.FromMinutes(5), 10, CancellationToken.None));
+        Assert.Single(await store.ClaimDueAsync(T0.AddMinutes(2), TimeSpan.FromMinutes(5), 10, CancellationToken.None));
+    }
+
+    [Fact]
+    public async Task Prune_DropsOldSentMessagesAndOldResolvedAlerts_KeepsTheRest()
+    {
+        var store = new AlertStore(await DatabaseAsync());
+        var resolvedOld = State("a", FindingKind.SignFlip, Severity.Critical, AlertStatus.Resolved) with { ResolvedAt = T0 };
+        var resolvedNew = State("b", FindingKind.SignFlip, Severity.Critical, AlertStatus.Resolved) with { ResolvedAt = T0.AddDays(10) };
+        var open = State("c", FindingKind.SignFlip, Severity.Critical, AlertStatus.Firing);
+        await store.ApplyCycleAsync(new CycleDecision(T0, [resolvedOld, resolvedNew, open], []), [Message("dw-old@driftwatch.local"), Message("dw-new@driftwatch.local"), Message("dw-unsent@driftwatch.local")], CancellationToken.None);
+        var entries = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), 10, CancellationToken.None);
+        await store.MarkSentAsync(entries.Single(e => e.MessageId == "dw-old@driftwatch.local").Id, T0, CancellationToken.None);
+        await store.MarkSentAsync(entries.Single(e => e.MessageId == "dw-new@driftwatch.local").Id, T0.AddDays(10), CancellationToken.None);
+
+        var pruned = await store.PruneAsync(sentBefore: T0.AddDays(5), resolvedBefore: T0.AddDays(5), CancellationToken.None);
+
+        Assert.Equal(2, pruned);
+        Assert.Equal(["dw-new@driftwatch.local", "dw-unsent@driftwatch.local"], (await store.ListOutboxAsync(false, 10, CancellationToken.None)).Select(e => e.MessageId).Order(StringComparer.Ordinal));
+        Assert.Equal(["b", "c"], (await store.ListAlertsAsync(T0.AddYears(-1), 10, CancellationToken.None)).Select(a => a.Pair).Order(StringComparer.Ordinal));
+    }
+
+    [Fact]
+    public async Task ListAlerts_ShowsOpenFirstThenRecentlyResolved()
+    {
+        var store = new AlertStore(await DatabaseAsync());
+        await store.ApplyCycleAsync(new CycleDecision(T0,
+        [
+            State("old", FindingKind.SignFlip, Severity.Critical, AlertStatus.Resolved) with { ResolvedAt = T0.AddDays(-30) },
+            State("recent", FindingKind.SignFlip, Severity.Critical, AlertStatus.Resolved) with { ResolvedAt = T0.AddDays(-1), LastSeen = T0.AddHours(5) },
+            State("open", FindingKind.SignFlip, Severity.Warning, AlertStatus.Pending),
+        ], []), [], CancellationToken.None);
+
+        var listed = await store.ListAlertsAsync(T0.AddDays(-7), 10, CancellationToken.None);
+        var forPair = await store.ListAlertsAsync(T0.AddDays(-7), 10, CancellationToken.None, pair: "recent");
+
+        Assert.Equal(["open", "recent"], listed.Select(a => a.Pair));
+        Assert.Equal(["recent"], forPair.Select(a => a.Pair));
+    }
+
+    [Fact]
+    public async Task Lifecycle_WarningPersistence_SurvivesARestart()
+    {
+        var pair = Pair("orders");
+        var finding = new Finding(FindingKind.SlopeShift, Severity.Warning, null, 0.4, "slope moved from 0.5 to 0.9");
+        var config = new AlertingConfig { Routes = [new RouteConfig { Name = "archive", Channel = ChannelKind.File, Directory = Path.GetTempPath() }] };
+
+        var before = new AlertHarness(await DatabaseAsync(), config);
+        var first = await before.CycleAsync((pair, [finding]));
+        // A new store object, as after a restart of the worker, over the same database.
+        var after = new AlertHarness(await ReopenAsync(), config);
+        after.Time.Advance(TimeSpan.FromHours(1));
+        var second = await after.CycleAsync((pair, [finding]));
+
+        Assert.Empty(first.Queued);
+        Assert.Equal(AlertStatus.Pending, Assert.Single(first.Saved).Status);
+        var fired = Assert.Single(second.Saved);
+        Assert.Equal((AlertStatus.Firing, 2, first.Saved[0].Id), (fired.Status, fired.ConsecutiveRuns, fired.Id));
+        Assert.Single(second.Queued);
+        Assert.Single(await after.Store.ListOutboxAsync(true, 10, CancellationToken.None));
+    }
+
+    /// <summary>A second handle on the database of this test's last <see cref="DatabaseAsync"/>, not a new database.</summary>
+    private protected abstract Task<IStoreDatabase> ReopenAsync();
+
+    private static AlertState State(string pair, FindingKind kind, Severity severity, AlertStatus status) =>
+        new(0, pair, kind, severity, status, 1, T0, T0, status == AlertStatus.Firing ? T0 : null, null, null, null, $"{pair} {kind}", 42);
+
+    private static OutboxMessage Message(string id) =>
+        new(id, "team", ChannelKind.Smtp, T0, "[DriftWatch] test", ["a@example.org", "b@example.org"], [1, 2, 3]);
+}
