@@ -7,46 +7,44 @@ internal static class ConnectionSection
     public static string? Read(MappingReader reader, bool postgres, string? sqliteDefault)
     {
         var passwordFile = reader.Text("password_file");
+        var text = reader.Text("connection", secret: true);
+        var usable = true;
         string? password = null;
         if (passwordFile is not null)
         {
             if (!postgres)
             {
                 reader.Error("password_file", "applies to postgres connections only");
+                usable = false;
             }
             else
             {
-                var path = reader.Context.ResolvePath(passwordFile);
-                password = SecretFiles.Read(path, out var fileProblem);
+                password = SecretFiles.Read(reader.Context.ResolvePath(passwordFile), out var fileProblem);
                 if (password is null)
                 {
                     reader.Error("password_file", fileProblem!);
-                    return null;
+                    usable = false;
                 }
             }
         }
 
-        var text = reader.Text("connection", secret: true);
+        if (text is null && reader.Has("connection"))
+        {
+            // Present but unreadable (an unset variable): already reported.
+            return null;
+        }
+
         if (text is null)
         {
-            if (!reader.Has("connection"))
+            if (postgres || sqliteDefault is null)
             {
-                if (!postgres && sqliteDefault is not null)
-                {
-                    text = sqliteDefault;
-                }
-                else
-                {
-                    reader.Missing("connection", postgres
-                        ? "is required: an Npgsql connection string such as Host=db;Database=shop;Username=reader"
-                        : "is required: a SQLite file path or Data Source=path");
-                    return null;
-                }
-            }
-            else
-            {
+                reader.Missing("connection", postgres
+                    ? "is required: an Npgsql connection string such as Host=db;Database=shop;Username=reader"
+                    : "is required: a SQLite file path or Data Source=path");
                 return null;
             }
+
+            text = sqliteDefault;
         }
 
         string? problem;
@@ -58,6 +56,6 @@ internal static class ConnectionSection
             reader.Error("connection", problem!);
         }
 
-        return resolved;
+        return usable ? resolved : null;
     }
 }

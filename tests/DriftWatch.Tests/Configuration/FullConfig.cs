@@ -1,0 +1,125 @@
+namespace DriftWatch.Tests.Configuration;
+
+/// <summary>A configuration that uses every key the loader accepts (a test checks that), with values unlike the defaults.</summary>
+internal static class FullConfig
+{
+    public const string PasswordFileName = "pg-password.txt";
+
+    public static readonly Dictionary<string, string> Env = new(StringComparer.Ordinal)
+    {
+        ["PG_HOST"] = "db.internal",
+        ["SMTP_PASSWORD"] = "smtp-Secret-Value-7",
+        ["DASH_TOKEN"] = "dashboard-token-0123456789",
+    };
+
+    public const string Yaml = """
+        sources:
+          - name: shop
+            kind: postgres
+            connection: Host=${PG_HOST};Port=${PG_PORT:-5433};Database=grocer;Username=reader
+            password_file: pg-password.txt
+            max_concurrent_queries: 4
+            statement_timeout: 1m30s
+          - name: warehouse
+            kind: sqlite
+            connection: data/warehouse.db
+        store:
+          kind: sqlite
+          connection: Data Source=history/dw.db
+          password_file:
+          retention: 90d
+          points_per_run: 500
+          points_retention: 40d
+        defaults:
+          schedule: "0 */10 * * * ?"
+          sample:
+            rows: 2000
+            method: random
+            all_rows_below: 1000
+            bernoulli: true
+            seed: 7
+          thresholds:
+            alpha: 0.05
+            outlier_t: 4
+          baseline:
+            first_runs: 8
+        pairs:
+          - name: basket-items-vs-value
+            source: shop
+            table: shop.orders
+            where: status = 'completed'
+            x: basket_items
+            y: basket_value
+            window:
+              column: placed_at
+              last: 1d12h
+            sample:
+              rows: 300
+              method: tablesample
+            schedule: "15 * * * *"
+            expect:
+              direction: positive
+              exact: false
+            thresholds:
+              min_correlation_change: 0.25
+            baseline:
+              window:
+                from: 2026-01-01
+                to: 2026-01-31
+            notify: [team, archive]
+            tags: [orders, finance]
+          - name: net-vs-gross
+            source: shop
+            query: SELECT net_total, gross_total FROM shop.invoices;
+            x: net_total
+            y: gross_total
+            expect:
+              direction: negative
+              exact: true
+            baseline:
+              rolling: 30d
+            notify: team
+          - name: pick-lines-vs-seconds
+            source: warehouse
+            table: pick_lists
+            x: pick_lines
+            y: pick_seconds
+        alerting:
+          routes:
+            - name: team
+              channel: smtp
+              recipients: [data@grocer.example, "Ops <ops@grocer.example>"]
+              min_severity: info
+              tags: [finance]
+              include_plot: false
+            - name: archive
+              channel: file
+              recipients: []
+              directory: alerts
+              min_severity: critical
+          smtp:
+            host: mail.grocer.example
+            port: 465
+            security: tls
+            user: driftwatch
+            password: ${SMTP_PASSWORD}
+            password_file:
+            from: DriftWatch <dw@grocer.example>
+          persistence:
+            warning: 3
+            critical: 2
+          renotify: 12h
+          fdr_q: off
+          check_failing_after: 5
+          public_url: https://dw.grocer.example/
+        dashboard:
+          enabled: true
+          bind: 0.0.0.0
+          port: 9000
+          access_token: ${DASH_TOKEN}
+        logging:
+          format: json
+          file: logs/dw.log
+          level: debug
+        """;
+}
