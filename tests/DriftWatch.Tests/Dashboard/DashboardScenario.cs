@@ -17,11 +17,12 @@ namespace DriftWatch.Tests.Dashboard;
 /// lifecycle and the alert store with its outbox. Test fixture data, invented for these tests only.
 /// <list type="bullet">
 /// <item><see cref="Healthy"/>: order totals follow item counts with noise throughout.</item>
-/// <item><see cref="Perfect"/>: gross amounts carried rounding noise, then on the last day became exactly
+/// <item><see cref="Perfect"/>: gross amounts carried per-invoice adjustments, then on the last day became exactly
 /// 1.2 × net (a job started deriving the column): became_perfect, critical, firing.</item>
 /// <item><see cref="Failing"/>: the last three checks could not reach the source: check_failing fires.</item>
 /// <item><see cref="Young"/>: configured a day ago, two runs, no baseline yet (first_runs: 5).</item>
-/// <item><see cref="Hostile"/> (optional): pair and column names that are HTML, for escaping tests.</item>
+/// <item><see cref="Hostile"/> (optional): pair and column names that are HTML, for escaping tests; its y is an
+/// exact function of x, so its perfect_relationship alert fires and the name reaches alerts and outbox too.</item>
 /// </list>
 /// Shared with the browser tests (linked into that project).
 /// </summary>
@@ -69,14 +70,19 @@ internal sealed class DashboardScenario : IAsyncDisposable
     /// <summary>Messages recorded in the outbox: all but the last were sent, the last failed once.</summary>
     public int OutboxCount { get; private set; }
 
-    public static async Task<DashboardScenario> CreateAsync(bool hostile = false, CancellationToken cancellationToken = default)
+    /// <param name="populate">False leaves the store migrated but empty (tests of the store connection only).</param>
+    public static async Task<DashboardScenario> CreateAsync(bool hostile = false, bool populate = true, CancellationToken cancellationToken = default)
     {
         var directory = Path.Combine(Path.GetTempPath(), "driftwatch-dash-" + Guid.NewGuid().ToString("N")[..12]);
         Directory.CreateDirectory(directory);
         var config = BuildConfig(Path.Combine(directory, "driftwatch.db"), hostile);
         var database = await StoreFactory.OpenAsync(config.Store, cancellationToken);
         var scenario = new DashboardScenario(directory, database, config);
-        await scenario.RunCyclesAsync(cancellationToken);
+        if (populate)
+        {
+            await scenario.RunCyclesAsync(cancellationToken);
+        }
+
         return scenario;
     }
 
@@ -179,8 +185,13 @@ internal sealed class DashboardScenario : IAsyncDisposable
                     break;
                 case Perfect:
                     x[i] = Math.Round(20 + random.NextDouble() * 480, 2);
-                    // Until the last day gross carried per-invoice adjustments; then a job recomputed it from net.
-                    y[i] = cycle >= Cycles - 4 ? 1.2 * x[i] : 1.2 * x[i] + Noise(random, 6);
+                    // Until the last day gross carried per-invoice shipping and discounts; then a job recomputed it from net.
+                    y[i] = cycle >= Cycles - 4 ? 1.2 * x[i] : 1.2 * x[i] + Noise(random, 45);
+                    break;
+                case Hostile:
+                    // An exact function on every run: perfect_relationship persists and fires.
+                    x[i] = 1 + random.Next(50);
+                    y[i] = 2 + 3 * x[i];
                     break;
                 case Failing:
                     x[i] = 5 + random.NextDouble() * 90;

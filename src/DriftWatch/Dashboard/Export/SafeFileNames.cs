@@ -4,7 +4,7 @@ using System.Text;
 namespace DriftWatch.Dashboard.Export;
 
 /// <summary>
-/// File names for pair pages of a static export: letters, digits, '.', '_' and '-' kept, anything else '_',
+/// File names for pair pages of a static export: letters, digits, '.', '_' and '-' kept (no two dots in a row), anything else '_',
 /// lower case, at most 80 characters. When that changed the name or two names would meet (also on a
 /// case-insensitive disk), a short hash of the real name is appended, so every pair keeps its own file.
 /// </summary>
@@ -34,7 +34,9 @@ internal static class SafeFileNames
                 break;
             }
 
-            text.Append(char.IsAsciiLetterOrDigit(c) || c is '.' or '_' or '-' ? char.ToLowerInvariant(c) : '_');
+            // No "..": harmless without a separator, but a name should not even look like a path step.
+            var keep = char.IsAsciiLetterOrDigit(c) || c is '_' or '-' || (c == '.' && (text.Length == 0 || text[^1] != '.'));
+            text.Append(keep ? char.ToLowerInvariant(c) : '_');
         }
 
         var stem = text.ToString().Trim('.');

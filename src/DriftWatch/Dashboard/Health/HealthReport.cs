@@ -6,6 +6,7 @@ namespace DriftWatch.Dashboard.Health;
 /// <summary>The body of <c>/healthz</c>; snake_case in JSON.</summary>
 internal sealed record HealthReport(string Status, DateTimeOffset CheckedAt, StoreHealth Store, SchedulerHealth Scheduler)
 {
+    [System.Text.Json.Serialization.JsonIgnore]
     public bool Healthy => Status == "ok";
 }
 

@@ -65,11 +65,58 @@ internal sealed class OpenMetricsText
     }
 
     /// <summary>
-    /// The canonical rendering for "le" (the spec's "Canonical Numbers": Go's %g with ".0" appended when there is
-    /// no point or exponent): 0.05, 1.0, 2.5, 10.0, +Inf. Exact for the bucket bounds used here, which are
-    /// between 1e-4 and 1e6, where %g and the shortest round-trip form agree.
+    /// The canonical rendering the spec asks for "le" values ("Canonical Numbers": Go's %g of the shortest
+    /// round-trip digits, exponent form below 1e-4 and from 1e6 on, ".0" appended when there is neither a point
+    /// nor an exponent): 0.05, 1.0, 2.5, 100000.0, 1e+06, 1e-05, +Inf. .NET has no %g of that kind, hence this.
     /// </summary>
-    public static string Bound(double value) => Float(value);
+    public static string Bound(double value)
+    {
+        if (double.IsNaN(value))
+        {
+            return "NaN";
+        }
+
+        if (double.IsInfinity(value))
+        {
+            return value > 0 ? "+Inf" : "-Inf";
+        }
+
+        if (value == 0)
+        {
+            return "0.0";
+        }
+
+        // Shortest round-trip digits and the decimal exponent x of d.ddd × 10^x.
+        var text = Math.Abs(value).ToString("R", CultureInfo.InvariantCulture);
+        var e = text.IndexOf('E', StringComparison.Ordinal);
+        var mantissa = e < 0 ? text : text[..e];
+        var shift = e < 0 ? 0 : int.Parse(text[(e + 1)..], NumberStyles.AllowLeadingSign, CultureInfo.InvariantCulture);
+        var point = mantissa.IndexOf('.', StringComparison.Ordinal);
+        var integerDigits = point < 0 ? mantissa.Length : point;
+        var digits = mantissa.Replace(".", string.Empty, StringComparison.Ordinal);
+        var leading = digits.Length - digits.TrimStart('0').Length;
+        digits = digits.Trim('0');
+        var exponent = integerDigits - leading - 1 + shift;
+        var sign = value < 0 ? "-" : string.Empty;
+
+        string body;
+        if (exponent < -4 || exponent >= 6)
+        {
+            var head = digits.Length > 1 ? digits[0] + "." + digits[1..] : digits;
+            body = head + "e" + (exponent < 0 ? "-" : "+") + Math.Abs(exponent).ToString("00", CultureInfo.InvariantCulture);
+        }
+        else if (exponent >= 0)
+        {
+            var whole = digits.PadRight(exponent + 1, '0');
+            body = whole[..(exponent + 1)] + "." + (whole.Length > exponent + 1 ? whole[(exponent + 1)..] : "0");
+        }
+        else
+        {
+            body = "0." + new string('0', -exponent - 1) + digits;
+        }
+
+        return sign + body;
+    }
 
     private static string EscapeLabel(string value) =>
         value.Replace("\\", "\\\\", StringComparison.Ordinal).Replace("\"", "\\\"", StringComparison.Ordinal).Replace("\n", "\\n", StringComparison.Ordinal);

@@ -28,7 +28,8 @@ internal static class BaselineFacts
         Fact(html, "Policy", baseline.PolicyText + (baseline.Accepted ? " (accepted by hand)" : string.Empty));
         Fact(html, "Built", Display.Time(baseline.CreatedAt));
         Fact(html, "Covers", $"{Display.Time(baseline.CoversFrom)} to {Display.Time(baseline.CoversTo)}");
-        Fact(html, "Pooled from", $"{Display.Count(baseline.RunCount)} runs, {Display.Count(profile.NUsed)} usable rows (about {Display.Number(baseline.MeanRunUsed)} per run)");
+        Fact(html, "Pooled from", $"{Display.Count(baseline.RunCount)} runs, {Display.Count(baseline.Points.UsedCount)} points kept" +
+            (baseline.MeanRunUsed is { } perRun ? $", about {Display.Count((int)Math.Round(perRun))} usable rows per run" : string.Empty));
         Fact(html, "Pearson r", Readable.WithInterval(profile.PearsonR, profile.PearsonCiLow, profile.PearsonCiHigh) + " (95% CI)");
         Fact(html, "Spearman ρ · Kendall τ-b", $"{Display.Correlation(profile.SpearmanRho)} · {Display.Correlation(profile.KendallTauB)}");
         Fact(html, "Line", profile.Intercept is null || profile.Slope is null ? Display.Missing : $"y = {Display.Number(profile.Intercept)} + {Display.Number(profile.Slope)}·x");

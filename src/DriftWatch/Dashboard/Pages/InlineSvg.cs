@@ -7,7 +7,7 @@ namespace DriftWatch.Dashboard.Pages;
 /// <summary>
 /// Makes a plot's SVG document fit for inlining into a page: no XML declaration, ids prefixed (ScottPlot
 /// names its clip paths cl_1, cl_2 … per document, so two plots on one page would clip each other), a viewBox
-/// so CSS can size it, an accessible name. The document is parsed and re-serialised by System.Xml, so text
+/// so CSS can size it, an accessible name, label text without indentation. The document is parsed and re-serialised by System.Xml, so text
 /// stays escaped; scripts, foreign objects and event attributes are dropped should a renderer ever emit them.
 /// </summary>
 internal static partial class InlineSvg
@@ -23,6 +23,12 @@ internal static partial class InlineSvg
         foreach (var element in root.DescendantsAndSelf().Where(e => e.Name.LocalName is "script" or "foreignObject").ToArray())
         {
             element.Remove();
+        }
+
+        foreach (var text in root.Descendants().Where(e => e.Name.LocalName is "text" or "tspan").SelectMany(e => e.Nodes().OfType<XText>()))
+        {
+            // SVG's default white-space handling drops the renderer's indentation anyway; trimmed, a label reads as one string.
+            text.Value = text.Value.Trim();
         }
 
         foreach (var element in root.DescendantsAndSelf())
