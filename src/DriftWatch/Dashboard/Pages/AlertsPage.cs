@@ -24,7 +24,7 @@ internal static class AlertsPage
             Tile(html, overview.Open.Count(a => a.Status == AlertStatus.Firing), "firing", "st-firing");
             Tile(html, overview.Open.Count(a => a.Status == AlertStatus.Pending), "pending", "st-pending");
             Tile(html, overview.Resolved.Count, "resolved in 7 days", "st-healthy");
-            Tile(html, overview.Deliveries.Count(d => !d.IsSent), "unsent messages", overview.Deliveries.Any(d => !d.IsSent && d.Attempts > 0) ? "st-failing" : "st-no_runs");
+            Tile(html, overview.Deliveries.Count(d => !d.IsSent), "unsent", overview.Deliveries.Any(d => !d.IsSent && d.Attempts > 0) ? "st-failing" : "st-no_runs");
             html.Close("section");
 
             html.Open("section", ("class", "card"), ("aria-labelledby", "open-title"));
@@ -86,7 +86,7 @@ internal static class AlertsPage
         html.Open("div", ("class", "table-wrap"));
         html.Open("table", ("class", "grid"), ("id", "deliveries"));
         html.Open("thead").Open("tr");
-        foreach (var header in new[] { "Queued", "Route", "Channel", "Subject", "Recipients", "State", "Attempts", "Sent / next attempt", "Last error" })
+        foreach (var header in new[] { "Queued (UTC)", "Route", "Channel", "Subject", "Recipients", "State", "Attempts", "Sent / next attempt", "Last error" })
         {
             html.Element("th", header, ("scope", "col"));
         }

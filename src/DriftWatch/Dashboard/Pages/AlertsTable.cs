@@ -17,7 +17,7 @@ internal static class AlertsTable
             headers.Add("Pair");
         }
 
-        headers.AddRange(["Kind", "Severity", "Status", "First seen", "Fired", "Last notified", "Resolved", "Acknowledged", "Runs in a row", "Message"]);
+        headers.AddRange(["Kind", "Severity", "Status", "First seen (UTC)", "Fired", "Last notified", "Resolved", "Acknowledged", "Runs in a row", "Message"]);
         foreach (var header in headers)
         {
             html.Element("th", header, ("scope", "col"));
@@ -71,7 +71,8 @@ internal static class AlertsTable
         html.Open("td", ("class", "when"));
         if (at is { } t)
         {
-            html.Element("time", Display.Time(t), ("datetime", Display.Iso(t)));
+            // The header says UTC; the cell stays narrow so the message column keeps its room.
+            html.Element("time", Display.Time(t)[..^4], ("datetime", Display.Iso(t)), ("title", Display.Time(t)));
             html.Element("span", Display.Relative(t, context.Now), ("class", "sub"));
         }
         else

@@ -94,9 +94,12 @@ internal static class HistoryTable
         }
         else
         {
-            foreach (var finding in run.Findings.OrderByDescending(f => f.Severity))
+            // One chip per kind (x and y can both shift), worst severity first; the messages are in the tooltip.
+            foreach (var kind in run.Findings.GroupBy(f => f.Kind).OrderByDescending(g => g.Max(f => f.Severity)))
             {
-                html.Element("span", Badges.Kind(finding.Kind), ("class", "chip sev-chip-" + JsonContract.Name(finding.Severity)), ("title", finding.Message));
+                var worst = kind.Max(f => f.Severity);
+                var label = Badges.Kind(kind.Key) + (kind.Count() > 1 ? " ×" + kind.Count().ToString(CultureInfo.InvariantCulture) : string.Empty);
+                html.Element("span", label, ("class", "chip sev-chip-" + JsonContract.Name(worst)), ("title", string.Join("\n", kind.Select(f => f.Message))));
             }
         }
 

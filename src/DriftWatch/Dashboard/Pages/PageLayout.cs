@@ -8,6 +8,9 @@ internal static class PageLayout
     public const string NavOverview = "overview";
     public const string NavAlerts = "alerts";
 
+    private const string FavIcon =
+        "data:image/svg+xml,%3Csvg xmlns='http://www.w3.org/2000/svg' viewBox='0 0 16 16'%3E%3Cpath d='M8 1 15 8 8 15 1 8z' fill='%23e8a33d'/%3E%3C/svg%3E";
+
     public static string Render(PageContext context, string title, string? activeNav, Action<Html> body)
     {
         ArgumentNullException.ThrowIfNull(context);
@@ -20,6 +23,8 @@ internal static class PageLayout
         html.Open("meta", ("name", "viewport"), ("content", "width=device-width, initial-scale=1"));
         html.Open("meta", ("name", "referrer"), ("content", "no-referrer"));
         html.Element("title", title + " · DriftWatch");
+        // An inline icon, so browsers do not ask the server (or the disk, for an export) for /favicon.ico.
+        html.Open("link", ("rel", "icon"), ("href", FavIcon));
         if (context.InlineAssets)
         {
             // The static export must open offline from a file, so CSS and script travel inside each page.

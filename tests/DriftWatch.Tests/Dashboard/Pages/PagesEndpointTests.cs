@@ -172,7 +172,7 @@ public sealed class PagesEndpointTests(DashboardFixture fixture)
         Assert.Contains(">became perfect</td>", open, StringComparison.Ordinal);
         Assert.Contains(">check failing</td>", open, StringComparison.Ordinal);
         // check_failing fired at the third failed check (alerting.check_failing_after = 3): the last cycle, plus a minute.
-        Assert.Contains("<time datetime=\"2026-11-30T18:01:00Z\">", open, StringComparison.Ordinal);
+        Assert.Contains("<time datetime=\"2026-11-30T18:01:00Z\"", open, StringComparison.Ordinal);
 
         Assert.Equal(Scenario.OutboxCount - 1, PageHtml.Count(html, "data-delivery=\"sent\""));
         Assert.Equal(1, PageHtml.Count(html, "data-delivery=\"retrying\""));
