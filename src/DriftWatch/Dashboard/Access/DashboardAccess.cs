@@ -60,8 +60,10 @@ internal sealed class DashboardAccess
         return request.Cookies.TryGetValue(CookieName, out var cookie) && FixedTimeEquals(cookie, _session!);
     }
 
+    // Hashing first makes the comparison constant-time in the length too: a wrong guess learns nothing, not even the token's length.
     public bool CheckToken(string? candidate) =>
-        _token is not null && candidate is not null && CryptographicOperations.FixedTimeEquals(Encoding.UTF8.GetBytes(candidate), _token);
+        _token is not null && candidate is not null &&
+        CryptographicOperations.FixedTimeEquals(SHA256.HashData(Encoding.UTF8.GetBytes(candidate)), SHA256.HashData(_token));
 
     /// <summary>"localhost", 127.0.0.0/8 and ::1 are loopback; anything else (0.0.0.0, a LAN address, a host name) is not.</summary>
     public static bool IsLoopback(string bind)
