@@ -68,6 +68,7 @@ internal static class CliApp
         root.Subcommands.Add(ValidateCommand.Create(console));
         root.Subcommands.Add(HistoryCommand.Create(console));
         root.Subcommands.Add(BaselineCommand.Create(console));
+        root.Subcommands.Add(DemoCommand.Create(console));
         return root;
     }
 
