@@ -44,13 +44,20 @@ internal static class CheckCommand
             }
 
             await using var services = await CliServices.StartAsync(loaded, parse.GetValue(verbose), ct);
-            var progress = new Progress<PairCheckResult>(r => console.Error.WriteLine(
+            var progress = new ImmediateProgress<PairCheckResult>(r => console.Error.WriteLine(
                 r.Status == RunStatus.Failed
                     ? $"  failed  {r.Pair.Name}: {r.Error}"
                     : $"  checked {r.Pair.Name} ({r.Findings.Count} finding{(r.Findings.Count == 1 ? "" : "s")})"));
             console.Error.WriteLine($"Checking {pairs.Count} pair{(pairs.Count == 1 ? "" : "s")}…");
-            var results = await services.GetRequiredService<CheckPass>().RunAsync(pairs, progress, ct);
+            var pass = await services.GetRequiredService<CheckPass>().RunAsync(pairs, progress, ct);
+            var results = pass.Checks;
             var exit = ExitCodeOf(results);
+            if (pass.Notifications > 0 || pass.Delivery.Sent + pass.Delivery.Failed > 0)
+            {
+                console.Error.WriteLine(
+                    $"Alerts: {pass.Notifications} notification(s), {pass.MessagesQueued} message(s) queued, {pass.Delivery.Sent} sent" +
+                    (pass.Delivery.Failed > 0 ? $", {pass.Delivery.Failed} failed (kept in the outbox; retried later)" : ""));
+            }
             if (parse.GetValue(format) == OutputFormat.Json)
             {
                 console.Out.WriteLine(JsonContract.Serialize(CheckOutput.ToJson(results, exit)));

@@ -64,10 +64,12 @@ internal static class CliApp
     {
         var root = new RootCommand(RootDescription);
         root.Subcommands.Add(ProfileCommand.Create(console));
+        root.Subcommands.Add(RunCommand.Create(console));
         root.Subcommands.Add(CheckCommand.Create(console));
         root.Subcommands.Add(ValidateCommand.Create(console));
         root.Subcommands.Add(HistoryCommand.Create(console));
         root.Subcommands.Add(BaselineCommand.Create(console));
+        root.Subcommands.Add(AlertsCommand.Create(console));
         root.Subcommands.Add(DemoCommand.Create(console));
         return root;
     }

@@ -1,9 +1,11 @@
+using DriftWatch.Alerts;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Profiling;
 using DriftWatch.Monitoring;
 using DriftWatch.Sources;
 using DriftWatch.Store;
 using Microsoft.Extensions.DependencyInjection;
+using Microsoft.Extensions.Logging;
 
 namespace DriftWatch.Hosting;
 
@@ -28,11 +30,19 @@ internal static class DriftWatchServices
         services.AddSingleton(sp => new BaselineService(
             sp.GetRequiredService<IHistoryStore>(),
             Profiler.Profile,
-            sp.GetRequiredService<Microsoft.Extensions.Logging.ILogger<BaselineService>>()));
+            sp.GetRequiredService<ILogger<BaselineService>>()));
         services.AddSingleton<PairChecker>();
         services.AddSingleton<MonitorCycle>();
         services.AddSingleton<CheckPass>();
         services.AddSingleton<CheckMetrics>();
+        services.AddSingleton<RunFeed>();
+
+        // Hosted services start in registration order: the schema is migrated before anything reads the store.
+        services.AddHostedService<StoreMigrationService>();
+
+        // Alerting: lifecycle and outbox in the store, digests composed per route, channels deliver.
+        services.AddDriftWatchAlerting(config.Alerting);
+        services.AddSingleton<AlertEvaluation>();
         return services;
     }
 

@@ -1,16 +1,32 @@
+using DriftWatch.Alerts;
 using DriftWatch.Core.Configuration;
 
 namespace DriftWatch.Monitoring;
 
 /// <summary>
-/// One full pass for a set of pairs: every check, then alert evaluation over the runs it recorded, then
-/// delivery of what is due. <c>check</c> and the demo use it; the worker runs the same steps on schedules.
+/// One full pass for a set of pairs: every check, then alert evaluation over the runs recorded since the last
+/// evaluation, then delivery of what is due. <c>check</c> and the demo use it; the worker runs the same steps
+/// on schedules (<see cref="Scheduling.PairCheckJob"/>, <see cref="Scheduling.AlertCycleJob"/>).
 /// </summary>
-internal sealed class CheckPass(MonitorCycle cycle)
+internal sealed class CheckPass(MonitorCycle cycle, AlertEvaluation alerts, OutboxDispatcher outbox, CheckMetrics metrics)
 {
-    public async Task<IReadOnlyList<PairCheckResult>> RunAsync(IReadOnlyList<PairConfig> pairs, IProgress<PairCheckResult>? progress, CancellationToken cancellationToken)
+    public async Task<CheckPassResult> RunAsync(IReadOnlyList<PairConfig> pairs, IProgress<PairCheckResult>? progress, CancellationToken cancellationToken)
     {
         var results = await cycle.RunAsync(pairs, progress, cancellationToken);
-        return results;
+        foreach (var result in results)
+        {
+            metrics.Record(result);
+        }
+
+        var cycles = await alerts.EvaluatePendingAsync(cancellationToken);
+        var delivery = await outbox.DispatchDueAsync(cancellationToken);
+        return new CheckPassResult(results, cycles, delivery);
     }
+}
+
+internal sealed record CheckPassResult(IReadOnlyList<PairCheckResult> Checks, IReadOnlyList<AlertCycleResult> AlertCycles, DispatchResult Delivery)
+{
+    public int Notifications => AlertCycles.Sum(c => c.Decision.Notifications.Count);
+
+    public int MessagesQueued => AlertCycles.Sum(c => c.Queued.Count);
 }

@@ -143,6 +143,31 @@ public abstract class AlertStoreContract
     }
 
     [Fact]
+    public async Task ClaimDue_SeveralDispatchersAtOnce_NeverShareAnEntry()
+    {
+        var database = await DatabaseAsync();
+        var store = new AlertStore(database);
+        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [.. Enumerable.Range(0, 40).Select(i => Message($"dw-{i}@driftwatch.local"))], CancellationToken.None);
+
+        // Four dispatchers (own store objects, own connections) claim in parallel until nothing is left.
+        var claimers = Enumerable.Range(0, 4).Select(async _ =>
+        {
+            var mine = new List<string>();
+            var own = new AlertStore(await ReopenAsync());
+            while (await own.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), 3, CancellationToken.None) is { Count: > 0 } batch)
+            {
+                mine.AddRange(batch.Select(e => e.MessageId));
+            }
+
+            return mine;
+        });
+        var claimed = (await Task.WhenAll(claimers)).SelectMany(c => c).ToArray();
+
+        Assert.Equal(40, claimed.Length);
+        Assert.Equal(40, claimed.Distinct(StringComparer.Ordinal).Count());
+    }
+
+    [Fact]
     public async Task MarkFailed_RecordsTheErrorAndTheNextAttempt()
     {
         var store = new AlertStore(await DatabaseAsync());

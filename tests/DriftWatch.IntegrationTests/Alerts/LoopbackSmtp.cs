@@ -10,7 +10,7 @@ internal static class LoopbackSmtp
 {
     public static SimpleSmtpServer Start(int? port = null)
     {
-        var configuration = Configuration.Configure().WithAddress(IPAddress.Loopback);
+        var configuration = netDumbster.smtp.Configuration.Configure().WithAddress(IPAddress.Loopback);
         configuration = port is null ? configuration.WithRandomPort() : configuration.WithPort(port.Value);
         return configuration.Build();
     }

@@ -96,9 +96,14 @@ internal static class DigestHtml
         var badge = item.IsActive ? AlertWording.SeverityLabel(alert.Severity) : "RESOLVED";
         html.Append("<li style=\"font-size:14px;line-height:1.45;margin:0 0 6px;\">")
             .Append("<span style=\"display:inline-block;font-size:11px;font-weight:700;letter-spacing:0.04em;color:#FFFFFF;background:").Append(colour)
-            .Append(";border-radius:3px;padding:1px 6px;margin-right:6px;\">").Append(badge).Append("</span>")
-            .Append("<span style=\"color:#6B7280;\">").Append(H(AlertWording.Transition(item.Notification.Kind))).Append(" · </span>")
-            .Append("<strong>").Append(H(AlertWording.Phrase(alert.Kind))).Append("</strong>: ")
+            .Append(";border-radius:3px;padding:1px 6px;margin-right:6px;\">").Append(badge).Append("</span>");
+        if (item.IsActive)
+        {
+            // The RESOLVED badge says it all for a recovery; active ones say whether they are news.
+            html.Append("<span style=\"color:#6B7280;\">").Append(H(AlertWording.Transition(item.Notification.Kind))).Append(" · </span>");
+        }
+
+        html.Append("<strong>").Append(H(AlertWording.Phrase(alert.Kind))).Append("</strong>: ")
             .Append(H(alert.Message));
         if (item.Notification.Kind is NotificationKind.Renotified or NotificationKind.Escalated && alert.FiredAt is { } fired)
         {

@@ -20,8 +20,13 @@ internal static class DigestPlainText
             foreach (var item in section.Items)
             {
                 var badge = item.IsActive ? AlertWording.SeverityLabel(item.Alert.Severity) : "RESOLVED";
-                text.Append("  [").Append(badge).Append("] ").Append(AlertWording.Transition(item.Notification.Kind))
-                    .Append(" · ").Append(AlertWording.Phrase(item.Alert.Kind)).Append(": ").Append(item.Alert.Message);
+                text.Append("  [").Append(badge).Append("] ");
+                if (item.IsActive)
+                {
+                    text.Append(AlertWording.Transition(item.Notification.Kind)).Append(" · ");
+                }
+
+                text.Append(AlertWording.Phrase(item.Alert.Kind)).Append(": ").Append(item.Alert.Message);
                 if (item.Notification.Kind is NotificationKind.Renotified or NotificationKind.Escalated && item.Alert.FiredAt is { } fired)
                 {
                     text.Append(" (firing since ").Append(FigureFormat.Time(fired)).Append(')');
@@ -53,7 +58,7 @@ internal static class DigestPlainText
             text.Append('\n');
         }
 
-        text.Append("-- \n").Append(DigestCautions.Signals).Append('\n');
+        text.Append("----\n").Append(DigestCautions.Signals).Append('\n');
         if (model.CarriesPlots)
         {
             text.Append(DigestCautions.SampledValues).Append('\n');

@@ -13,7 +13,8 @@ internal sealed class SqlitePairSql(PairTarget target, bool windowed)
     public string Probe()
     {
         var window = target.WindowColumn is null ? string.Empty : ", " + Column(target.WindowColumn);
-        return $"SELECT {Column(target.X)}, {Column(target.Y)}{window} FROM {From()} LIMIT 0";
+        var filter = target.Where is null ? string.Empty : $" WHERE ({target.Where})";
+        return $"SELECT {Column(target.X)}, {Column(target.Y)}{window} FROM {From()}{filter} LIMIT 0";
     }
 
     /// <summary>The window column's storage class and first value (without the window, which needs them).</summary>

@@ -1,0 +1,196 @@
+using System.CommandLine;
+using System.Globalization;
+using System.Text.Json.Serialization;
+using DriftWatch.Configuration;
+using DriftWatch.Core.Alerting;
+using DriftWatch.Output;
+using DriftWatch.Store;
+using Microsoft.Extensions.DependencyInjection;
+using Spectre.Console;
+
+namespace DriftWatch.Cli;
+
+/// <summary><c>driftwatch alerts list|ack|snooze|unsnooze</c>: the alert states the worker keeps in the store.</summary>
+internal static class AlertsCommand
+{
+    public static readonly TimeSpan RecentlyResolved = TimeSpan.FromDays(7);
+
+    public static Command Create(CliConsole console)
+    {
+        ArgumentNullException.ThrowIfNull(console);
+        var command = new Command("alerts", "List, acknowledge or snooze alerts.");
+        command.Subcommands.Add(List(console));
+        command.Subcommands.Add(Ack(console));
+        command.Subcommands.Add(Snooze(console));
+        command.Subcommands.Add(Unsnooze(console));
+        return command;
+    }
+
+    private static Command List(CliConsole console)
+    {
+        var config = ConfigOption.Create();
+        var format = CommonOptions.Format();
+        var command = new Command("list", "Open alerts (pending, firing) and those resolved in the last 7 days, newest first, with active snoozes.") { config, format };
+        command.SetAction(async (parse, ct) =>
+        {
+            var loaded = ConfigOption.Load(parse.GetValue(config), console);
+            if (loaded is null)
+            {
+                return ExitCodes.UsageError;
+            }
+
+            await using var services = await CliServices.StartAsync(loaded, verbose: false, ct);
+            var store = services.GetRequiredService<IAlertStore>();
+            var now = services.GetRequiredService<TimeProvider>().GetUtcNow();
+            var alerts = await store.ListAlertsAsync(now - RecentlyResolved, 200, ct);
+            var snoozes = await store.ListSnoozesAsync(now, ct);
+            if (parse.GetValue(format) == OutputFormat.Json)
+            {
+                console.Out.WriteLine(JsonContract.Serialize(new AlertListJson(
+                    [.. alerts.Select(a => new AlertJson(a.Id, a.Pair, JsonContract.Name(a.Kind), JsonContract.Name(a.Severity), JsonContract.Name(a.Status), a.FirstSeen, a.FiredAt, a.LastNotifiedAt, a.ResolvedAt, a.AckedAt, a.Message))],
+                    [.. snoozes.Select(s => new SnoozeJson(s.Pair, s.Until, s.Reason))])));
+                return ExitCodes.Healthy;
+            }
+
+            if (alerts.Count == 0)
+            {
+                console.WriteNote("no open alerts and none resolved in the last 7 days");
+            }
+            else
+            {
+                var table = new Table().Border(TableBorder.Rounded).Title("[bold]Alerts[/]");
+                table.AddColumns("id", "pair", "kind", "severity", "status", "first seen (UTC)", "fired", "resolved");
+                foreach (var a in alerts)
+                {
+                    table.AddRow(
+                        a.Id.ToString(CultureInfo.InvariantCulture),
+                        Markup.Escape(a.Pair),
+                        Markup.Escape(JsonContract.Name(a.Kind)),
+                        SeverityStyle.Markup(a.Severity),
+                        JsonContract.Name(a.Status) + (a.IsAcked ? " (acked)" : ""),
+                        Time(a.FirstSeen),
+                        Time(a.FiredAt),
+                        Time(a.ResolvedAt));
+                }
+
+                console.Ansi.Write(table);
+                foreach (var a in alerts)
+                {
+                    console.Ansi.MarkupLine($"[bold]#{a.Id}[/] {Markup.Escape(a.Message)}");
+                }
+            }
+
+            foreach (var s in snoozes)
+            {
+                console.Ansi.MarkupLine($"snoozed: [bold]{Markup.Escape(s.Pair)}[/] until {Time(s.Until)} UTC{(s.Reason is null ? "" : " (" + Markup.Escape(s.Reason) + ")")}");
+            }
+
+            return ExitCodes.Healthy;
+        });
+        return command;
+    }
+
+    private static Command Ack(CliConsole console)
+    {
+        var config = ConfigOption.Create();
+        var id = new Argument<long>("ID") { Description = "The alert's id (see 'alerts list')." };
+        var command = new Command("ack", "Acknowledge an open alert: no re-notifications while it keeps firing; it still resolves (with a notice) when the pair recovers.") { id, config };
+        command.SetAction(async (parse, ct) =>
+        {
+            var loaded = ConfigOption.Load(parse.GetValue(config), console);
+            if (loaded is null)
+            {
+                return ExitCodes.UsageError;
+            }
+
+            await using var services = await CliServices.StartAsync(loaded, verbose: false, ct);
+            var alertId = parse.GetValue(id);
+            var now = services.GetRequiredService<TimeProvider>().GetUtcNow();
+            if (!await services.GetRequiredService<IAlertStore>().AckAsync(alertId, now, ct))
+            {
+                console.WriteError($"no open alert with id {alertId} (see 'driftwatch alerts list')");
+                return ExitCodes.UsageError;
+            }
+
+            console.Ansi.MarkupLine($"[green]✓[/] alert {alertId} acknowledged");
+            return ExitCodes.Healthy;
+        });
+        return command;
+    }
+
+    private static Command Snooze(CliConsole console)
+    {
+        var config = ConfigOption.Create();
+        var pair = new Argument<string>("PAIR") { Description = "The pair's name in the configuration." };
+        var duration = new Option<string>("--for") { Description = "How long, e.g. 30m, 8h, 2d.", Required = true, HelpName = "DURATION" };
+        var reason = new Option<string?>("--reason") { Description = "Why (shown in 'alerts list' and on the dashboard).", HelpName = "TEXT" };
+        var command = new Command("snooze", "Silence a pair's notifications for a while (a planned migration, a known incident); its states are still tracked.") { pair, config, duration, reason };
+        command.SetAction(async (parse, ct) =>
+        {
+            var loaded = ConfigOption.Load(parse.GetValue(config), console);
+            if (loaded is null)
+            {
+                return ExitCodes.UsageError;
+            }
+
+            var target = PairSelection.Find(loaded, parse.GetValue(pair)!);
+            if (!DurationSyntax.TryParse(parse.GetValue(duration) ?? "", out var span, out var problem) || span <= TimeSpan.Zero)
+            {
+                throw new CliUsageException($"--for {problem ?? "must be longer than zero"}");
+            }
+
+            await using var services = await CliServices.StartAsync(loaded, verbose: false, ct);
+            var now = services.GetRequiredService<TimeProvider>().GetUtcNow();
+            await services.GetRequiredService<IAlertStore>().SnoozeAsync(target.Name, now + span, now, parse.GetValue(reason), ct);
+            console.Ansi.MarkupLine($"[green]✓[/] [bold]{Markup.Escape(target.Name)}[/] snoozed until {Time(now + span)} UTC");
+            return ExitCodes.Healthy;
+        });
+        return command;
+    }
+
+    private static Command Unsnooze(CliConsole console)
+    {
+        var config = ConfigOption.Create();
+        var pair = new Argument<string>("PAIR") { Description = "The pair's name in the configuration." };
+        var command = new Command("unsnooze", "End a pair's snooze now.") { pair, config };
+        command.SetAction(async (parse, ct) =>
+        {
+            var loaded = ConfigOption.Load(parse.GetValue(config), console);
+            if (loaded is null)
+            {
+                return ExitCodes.UsageError;
+            }
+
+            var target = PairSelection.Find(loaded, parse.GetValue(pair)!);
+            await using var services = await CliServices.StartAsync(loaded, verbose: false, ct);
+            var removed = await services.GetRequiredService<IAlertStore>().UnsnoozeAsync(target.Name, ct);
+            console.Ansi.MarkupLine(removed ? $"[green]✓[/] snooze of [bold]{Markup.Escape(target.Name)}[/] ended" : $"'{Markup.Escape(target.Name)}' was not snoozed");
+            return ExitCodes.Healthy;
+        });
+        return command;
+    }
+
+    private static string Time(DateTimeOffset? at) => at is null ? "" : at.Value.UtcDateTime.ToString("yyyy-MM-dd HH:mm", CultureInfo.InvariantCulture);
+}
+
+internal sealed record AlertListJson(
+    [property: JsonPropertyName("alerts")] IReadOnlyList<AlertJson> Alerts,
+    [property: JsonPropertyName("snoozes")] IReadOnlyList<SnoozeJson> Snoozes);
+
+internal sealed record AlertJson(
+    [property: JsonPropertyName("id")] long Id,
+    [property: JsonPropertyName("pair")] string Pair,
+    [property: JsonPropertyName("kind")] string Kind,
+    [property: JsonPropertyName("severity")] string Severity,
+    [property: JsonPropertyName("status")] string Status,
+    [property: JsonPropertyName("first_seen")] DateTimeOffset FirstSeen,
+    [property: JsonPropertyName("fired_at")] DateTimeOffset? FiredAt,
+    [property: JsonPropertyName("last_notified_at")] DateTimeOffset? LastNotifiedAt,
+    [property: JsonPropertyName("resolved_at")] DateTimeOffset? ResolvedAt,
+    [property: JsonPropertyName("acked_at")] DateTimeOffset? AckedAt,
+    [property: JsonPropertyName("message")] string Message);
+
+internal sealed record SnoozeJson(
+    [property: JsonPropertyName("pair")] string Pair,
+    [property: JsonPropertyName("until")] DateTimeOffset Until,
+    [property: JsonPropertyName("reason")] string? Reason);

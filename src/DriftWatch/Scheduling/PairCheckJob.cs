@@ -1,0 +1,29 @@
+using DriftWatch.Core.Configuration;
+using DriftWatch.Monitoring;
+using Quartz;
+
+namespace DriftWatch.Scheduling;
+
+/// <summary>
+/// The scheduled check of one pair. <see cref="DisallowConcurrentExecutionAttribute"/> is per job key,
+/// and each pair has its own job, so a slow run of a pair delays that pair's next run instead of overlapping it.
+/// </summary>
+[DisallowConcurrentExecution]
+internal sealed class PairCheckJob(DriftWatchConfig config, PairChecker checker, CheckMetrics metrics) : IJob
+{
+    public const string PairKey = "pair";
+
+    public async ValueTask Execute(IJobExecutionContext context, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(context);
+        var name = context.MergedJobDataMap.GetString(PairKey);
+        var pair = name is null ? null : config.FindPair(name);
+        if (pair is null)
+        {
+            return;
+        }
+
+        var result = await checker.CheckAsync(pair, cancellationToken);
+        metrics.Record(result);
+    }
+}

@@ -1,0 +1,37 @@
+using DriftWatch.Core.Configuration;
+using Quartz;
+
+namespace DriftWatch.Scheduling;
+
+internal static class SchedulingSetup
+{
+    /// <summary>How long a shutdown waits for running checks before their tokens are cancelled.</summary>
+    public static readonly TimeSpan ShutdownGrace = TimeSpan.FromSeconds(30);
+
+    /// <summary>One job and one cron trigger per pair; an alert-evaluation job on its own interval.</summary>
+    public static void AddPairSchedules(IQuartzBuilder quartz, DriftWatchConfig config, TimeSpan alertEvery)
+    {
+        ArgumentNullException.ThrowIfNull(quartz);
+        ArgumentNullException.ThrowIfNull(config);
+        foreach (var pair in config.Pairs)
+        {
+            var jobKey = new JobKey(pair.Name, "pairs");
+            quartz.AddJob<PairCheckJob>(job => job.WithIdentity(jobKey).UsingJobData(PairCheckJob.PairKey, pair.Name).WithDescription($"check {pair.Name}"));
+            quartz.AddTrigger(trigger => trigger
+                .ForJob(jobKey)
+                .WithIdentity(pair.Name, "pairs")
+                .WithSchedule(CronScheduleBuilder.Create(pair.Schedule)
+                    .InTimeZone(TimeZoneInfo.Utc)
+                    // After downtime a pair runs once, not once per missed slot.
+                    .WithMisfireInstruction(CronTriggerMisfireInstruction.FireAndProceed)));
+        }
+
+        var alertKey = new JobKey("evaluate-alerts", "alerts");
+        quartz.AddJob<AlertCycleJob>(job => job.WithIdentity(alertKey).WithDescription("evaluate alerts and deliver the outbox"));
+        quartz.AddTrigger(trigger => trigger
+            .ForJob(alertKey)
+            .WithIdentity("evaluate-alerts", "alerts")
+            .WithSchedule(SimpleScheduleBuilder.Create().WithInterval(alertEvery).RepeatForever()
+                .WithMisfireInstruction(SimpleTriggerMisfireInstruction.NextWithRemainingCount)));
+    }
+}
