@@ -62,7 +62,7 @@ internal static class DemoCommand
             }
 
             console.Out.WriteLine();
-            DemoReport.Render(console.Ansi, run);
+            DemoReport.Render(console.Out, run);
             if (parse.GetValue(serve))
             {
                 console.WriteWarning("--serve needs the dashboard, which is not part of this build yet; browse the results with 'driftwatch history' instead.");

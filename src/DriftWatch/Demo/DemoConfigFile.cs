@@ -97,6 +97,8 @@ internal static class DemoConfigFile
               persistence:
                 warning: 2
                 critical: 1
+              # The demo checks once a day, so the default 24h would repeat every open alert in every day's mail.
+              renotify: 7d
               # The renamed table fails its check on days {TerminalScenario.RenameDay}, {TerminalScenario.RenameDay + 1} and {TerminalScenario.RenameDay + 2}: the third failure raises check_failing.
               check_failing_after: {checkFailingAfter.ToString(CultureInfo.InvariantCulture)}
 

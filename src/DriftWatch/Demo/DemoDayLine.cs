@@ -15,9 +15,10 @@ internal sealed class DemoDayLine
     private readonly Dictionary<string, HashSet<FindingKind>> _previous = new(StringComparer.Ordinal);
     private readonly HashSet<string> _failing = new(StringComparer.Ordinal);
 
-    public IReadOnlyList<string> Describe(int day, IReadOnlyList<PairCheckResult> results, int alertsFired, int mailsWritten)
+    public IReadOnlyList<string> Describe(int day, CheckPassResult pass)
     {
-        ArgumentNullException.ThrowIfNull(results);
+        ArgumentNullException.ThrowIfNull(pass);
+        var results = pass.Checks;
         var newFindings = new List<string>();
         var failed = new List<PairCheckResult>();
         foreach (var result in results)
@@ -57,17 +58,19 @@ internal sealed class DemoDayLine
             _ => $"{newFindings.Count} new findings: {string.Join(", ", newFindings)}",
         });
 
-        if (alertsFired > 0 || mailsWritten > 0)
-        {
-            parts.Add(string.Create(CultureInfo.InvariantCulture, $"{alertsFired} alert{(alertsFired == 1 ? "" : "s")} fired, {mailsWritten} mail{(mailsWritten == 1 ? "" : "s")} written"));
-        }
-
         var lines = new List<string> { head + "  " + string.Join("  ", parts) };
 
         // A failure's reason once, on the day it starts; the following days only name the pair.
         foreach (var result in failed.Where(f => _failing.Add(f.Pair.Name)))
         {
             lines.Add($"        {result.Pair.Name}: {result.Error}");
+        }
+
+        var notices = pass.AlertCycles.SelectMany(c => c.Decision.Notifications).ToArray();
+        if (notices.Length > 0 || pass.Delivery.Sent > 0)
+        {
+            var said = notices.Select(n => $"{JsonContract.Name(n.Kind)} {n.Alert.Pair} {JsonContract.Name(n.Alert.Kind)}");
+            lines.Add(string.Create(CultureInfo.InvariantCulture, $"        alerts: {string.Join(", ", said)}; {pass.Delivery.Sent} mail{(pass.Delivery.Sent == 1 ? "" : "s")} written"));
         }
 
         return lines;

@@ -8,7 +8,6 @@ namespace DriftWatch.Demo;
 /// <param name="ControlFindings">All findings on the control pair, info included.</param>
 /// <param name="ControlFailures">Checks of the control pair that could not run (must be 0).</param>
 /// <param name="FalseAlarmTexts">"day 07: kind (severity): message" for each false alarm, for the report.</param>
-/// <param name="AlertsWired">The flow stores alerts (an alert store is registered), so the alert column means something.</param>
 internal sealed record DemoOutcome(
     int Days,
     IReadOnlyList<FaultOutcome> Faults,
@@ -16,8 +15,7 @@ internal sealed record DemoOutcome(
     int ControlFalseAlarms,
     int ControlFindings,
     int ControlFailures,
-    IReadOnlyList<string> FalseAlarmTexts,
-    bool AlertsWired)
+    IReadOnlyList<string> FalseAlarmTexts)
 {
     /// <summary>Every fault due within the simulated days was caught and the control pair stayed silent.</summary>
     public bool Success =>

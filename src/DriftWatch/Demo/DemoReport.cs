@@ -1,78 +1,88 @@
 using System.Globalization;
 using DriftWatch.Output;
-using Spectre.Console;
 
 namespace DriftWatch.Demo;
 
-/// <summary>The summary printed after the last day: one row per fault (and the control), what was said, where the files are.</summary>
+/// <summary>
+/// The summary printed after the last day: one row per fault (and the control), what DriftWatch said, where the
+/// files are. Plain aligned text rather than a boxed table: rows stay whole when the output is redirected or
+/// pasted, where a table would be folded to 80 columns.
+/// </summary>
 internal static class DemoReport
 {
-    public static void Render(IAnsiConsole console, DemoRun run)
+    private static readonly string[] Headers = ["pair", "fault", "injected", "detected", "finding", "alert fired"];
+
+    public static void Render(TextWriter output, DemoRun run)
     {
-        ArgumentNullException.ThrowIfNull(console);
+        ArgumentNullException.ThrowIfNull(output);
         ArgumentNullException.ThrowIfNull(run);
         var outcome = run.Outcome;
-        var table = new Table().Border(TableBorder.Rounded).Title("[bold]What the demo injected and what DriftWatch found[/]");
-        table.AddColumns("pair", "fault", "injected", "detected", "finding", "alert");
         var control = TerminalScenario.Control;
-        table.AddRow(
-            Markup.Escape(control.Name),
-            "none (control pair)",
-            "-",
-            "-",
-            outcome.ControlFalseAlarms == 0 && outcome.ControlFailures == 0 ? "[green]silent[/]" : "[red]false alarms[/]",
-            "-");
-        foreach (var fault in outcome.Faults)
+        var rows = new List<string[]>
         {
-            table.AddRow(
-                Markup.Escape(fault.Fault.Pair),
-                Markup.Escape(fault.Fault.Description),
-                Day(fault.Fault.Day),
-                fault.DetectedDay is { } d ? Lag(d, fault.Fault.Day) : Verdict(fault.Verdict),
-                Markup.Escape(JsonContract.Name(fault.Fault.Expected)),
-                fault.AlertDay is { } a ? Day(a) : outcome.AlertsWired ? "-" : "[grey]not wired[/]");
+            new[] { control.Name, "none (control pair)", "-", "-", outcome.ControlFalseAlarms == 0 && outcome.ControlFailures == 0 ? "silent" : "FALSE ALARMS", "-" },
+        };
+        rows.AddRange(outcome.Faults.Select(f => new[]
+        {
+            f.Fault.Pair,
+            f.Fault.Description,
+            Day(f.Fault.Day),
+            f.DetectedDay is { } d ? Lag(d, f.Fault.Day) : Verdict(f.Verdict),
+            JsonContract.Name(f.Fault.Expected),
+            f.AlertDay is { } a ? Day(a) : "-",
+        }));
+
+        output.WriteLine("What the demo injected and what DriftWatch found");
+        var widths = Enumerable.Range(0, Headers.Length).Select(i => rows.Max(r => r[i].Length)).Select((w, i) => Math.Max(w, Headers[i].Length)).ToArray();
+        WriteRow(output, Headers, widths);
+        WriteRow(output, [.. widths.Select(w => new string('-', w))], widths);
+        foreach (var row in rows)
+        {
+            WriteRow(output, row, widths);
         }
 
-        console.Write(table);
-        console.WriteLine();
-        console.MarkupLine(Markup.Escape(string.Create(
+        output.WriteLine();
+        output.WriteLine(string.Create(
             CultureInfo.InvariantCulture,
-            $"Control pair {control.Name}: {outcome.ControlFalseAlarms} false alarms (findings at warning or worse) in {outcome.ControlChecks} checks, {outcome.ControlFindings} findings of any severity, {outcome.ControlFailures} failed checks.")));
+            $"Control pair {control.Name}: {outcome.ControlFalseAlarms} false alarms (findings at warning or worse) in {outcome.ControlChecks} checks; {outcome.ControlFindings} findings of any severity; {outcome.ControlFailures} failed checks."));
         foreach (var text in outcome.FalseAlarmTexts)
         {
-            console.MarkupLine("  [red]false alarm[/] " + Markup.Escape(text));
+            output.WriteLine("  false alarm " + text);
         }
 
         var caught = outcome.Faults.Where(f => f.Verdict == FaultVerdict.Caught && f.Evidence is not null).ToArray();
         if (caught.Length > 0)
         {
-            console.WriteLine();
-            console.MarkupLine("[bold]What DriftWatch said[/] (first detection of each fault):");
+            output.WriteLine();
+            output.WriteLine("What DriftWatch said (first detection of each fault):");
             foreach (var fault in caught)
             {
-                console.MarkupLine(Markup.Escape(string.Create(CultureInfo.InvariantCulture, $"  day {fault.DetectedDay:00} {fault.Fault.Pair}: {fault.Evidence}")));
+                output.WriteLine(string.Create(CultureInfo.InvariantCulture, $"  day {fault.DetectedDay:00} {fault.Fault.Pair}: {fault.Evidence}"));
             }
         }
 
-        console.WriteLine();
+        output.WriteLine();
         var missed = outcome.Faults.Count(f => f.Verdict == FaultVerdict.Missed);
         var due = outcome.Faults.Count(f => f.Verdict is FaultVerdict.Caught or FaultVerdict.Missed);
-        console.MarkupLine(outcome.Success
-            ? $"[green]Every fault due within {outcome.Days} days was caught within {ScenarioFault.DefaultAllowedLag} days of its injection ({due - missed} of {due}), and the control pair stayed silent.[/]"
-            : $"[red]Not a clean run: {missed} of {due} faults missed, {outcome.ControlFalseAlarms} false alarms and {outcome.ControlFailures} failed checks on the control pair.[/]");
-        console.WriteLine();
-        console.MarkupLine(Markup.Escape($"  store           {Path.Combine(run.Folder, DemoFolder.StoreFile)}"));
-        console.MarkupLine(Markup.Escape(string.Create(CultureInfo.InvariantCulture, $"  alert mails     {Path.Combine(run.Folder, DemoFolder.MailFolder)} ({run.MailFiles} .eml files)")));
+        output.WriteLine(outcome.Success
+            ? string.Create(CultureInfo.InvariantCulture, $"PASS: every fault due within {outcome.Days} days was caught within {ScenarioFault.DefaultAllowedLag} days of its injection ({due} of {due}), and the control pair stayed silent.")
+            : string.Create(CultureInfo.InvariantCulture, $"FAIL: {missed} of {due} faults missed; {outcome.ControlFalseAlarms} false alarms and {outcome.ControlFailures} failed checks on the control pair."));
+        output.WriteLine();
+        output.WriteLine($"  store           {Path.Combine(run.Folder, DemoFolder.StoreFile)}");
+        output.WriteLine(string.Create(CultureInfo.InvariantCulture, $"  alert mails     {Path.Combine(run.Folder, DemoFolder.MailFolder)} ({run.MailFiles} .eml files)"));
         if (run.ReportPath is { } report)
         {
-            console.MarkupLine(Markup.Escape($"  static report   {report}"));
+            output.WriteLine($"  static report   {report}");
         }
 
-        console.MarkupLine(Markup.Escape($"  configuration   {run.ConfigPath}"));
-        console.MarkupLine(Markup.Escape($"  next            driftwatch history {TerminalScenario.Trucks.Name} --config {run.ConfigPath}"));
-        console.WriteLine();
-        console.MarkupLine($"[grey]{Markup.Escape(Cautions.SignalsNotProof)} {Markup.Escape(Cautions.PlotsCarryData)} The data is invented.[/]");
+        output.WriteLine($"  configuration   {run.ConfigPath}");
+        output.WriteLine($"  look around     driftwatch history {TerminalScenario.Trucks.Name} --config {run.ConfigPath}");
+        output.WriteLine();
+        output.WriteLine($"{Cautions.SignalsNotProof} {Cautions.PlotsCarryData} The data is invented.");
     }
+
+    private static void WriteRow(TextWriter output, string[] cells, int[] widths) =>
+        output.WriteLine(string.Join("  ", cells.Select((c, i) => i == cells.Length - 1 ? c : c.PadRight(widths[i]))).TrimEnd());
 
     private static string Day(int day) => day.ToString("00", CultureInfo.InvariantCulture);
 
@@ -81,9 +91,9 @@ internal static class DemoReport
 
     private static string Verdict(FaultVerdict verdict) => verdict switch
     {
-        FaultVerdict.Missed => "[red]missed[/]",
-        FaultVerdict.NotReached => "[grey]not reached[/]",
-        FaultVerdict.Pending => "[yellow]not yet[/]",
+        FaultVerdict.Missed => "MISSED",
+        FaultVerdict.NotReached => "not reached",
+        FaultVerdict.Pending => "not yet",
         _ => "-",
     };
 }

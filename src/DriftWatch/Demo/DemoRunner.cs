@@ -49,27 +49,21 @@ internal sealed class DemoRunner(CliConsole console)
         var clock = new DemoClock(TerminalScenario.CheckTimeOf(1));
         await using var services = await StartServicesAsync(config, clock, options.Verbose, cancellationToken);
         var pass = services.GetRequiredService<CheckPass>();
-        var alerts = services.GetService<IAlertStore>();
-        var mail = Path.Combine(folder, DemoFolder.MailFolder);
         var lines = new DemoDayLine();
-        var mails = 0;
         for (var day = 1; day <= options.Days; day++)
         {
             await LoadDayAsync(scenario, day, cancellationToken);
             clock.UtcNow = TerminalScenario.CheckTimeOf(day);
-            var results = await pass.RunAsync(config.Pairs, progress: null, cancellationToken);
-
-            var fired = alerts is null ? 0 : await CountFiredAsync(alerts, clock.UtcNow, cancellationToken);
-            var mailsNow = Directory.Exists(mail) ? Directory.GetFiles(mail, "*.eml").Length : 0;
-            foreach (var line in lines.Describe(day, results, fired, mailsNow - mails))
+            var result = await pass.RunAsync(config.Pairs, progress: null, cancellationToken);
+            foreach (var line in lines.Describe(day, result))
             {
                 output.WriteLine(line);
             }
-
-            mails = mailsNow;
         }
 
-        var outcome = await DemoSummary.BuildAsync(services.GetRequiredService<IHistoryStore>(), alerts, options.Days, cancellationToken);
+        var outcome = await DemoSummary.BuildAsync(services.GetRequiredService<IHistoryStore>(), services.GetRequiredService<IAlertStore>(), options.Days, cancellationToken);
+        var mail = Path.Combine(folder, DemoFolder.MailFolder);
+        var mails = Directory.Exists(mail) ? Directory.GetFiles(mail, "*.eml").Length : 0;
         return new DemoRun(folder, configPath, config, outcome, mails);
     }
 
@@ -122,12 +116,6 @@ internal sealed class DemoRunner(CliConsole console)
         {
             await scenario.LoadAsync(pair, TerminalScenario.TableOn(pair, day), TerminalScenario.RowsFor(pair, day), cancellationToken);
         }
-    }
-
-    private static async Task<int> CountFiredAsync(IAlertStore alerts, DateTimeOffset now, CancellationToken cancellationToken)
-    {
-        var states = await alerts.ListAlertsAsync(now, 10_000, cancellationToken);
-        return states.Count(a => a.FiredAt == now);
     }
 }
 

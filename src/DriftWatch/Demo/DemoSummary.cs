@@ -13,9 +13,10 @@ namespace DriftWatch.Demo;
 /// </summary>
 internal static class DemoSummary
 {
-    public static async Task<DemoOutcome> BuildAsync(IHistoryStore history, IAlertStore? alerts, int days, CancellationToken cancellationToken)
+    public static async Task<DemoOutcome> BuildAsync(IHistoryStore history, IAlertStore alerts, int days, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(history);
+        ArgumentNullException.ThrowIfNull(alerts);
         var runs = new Dictionary<string, IReadOnlyList<RunRecord>>(StringComparer.Ordinal);
         foreach (var pair in TerminalScenario.Pairs)
         {
@@ -23,12 +24,10 @@ internal static class DemoSummary
             runs[pair.Name] = [.. newestFirst.OrderBy(r => r.StartedAt).ThenBy(r => r.Id)];
         }
 
-        var alertStates = alerts is null
-            ? []
-            : await alerts.ListAlertsAsync(TerminalScenario.FirstDay.AddDays(-1), 10_000, cancellationToken);
+        var alertStates = await alerts.ListAlertsAsync(TerminalScenario.FirstDay.AddDays(-1), 10_000, cancellationToken);
 
         var faults = TerminalScenario.Faults
-            .Select(f => Judge(f, runs[f.Pair], alertStates, alerts is not null, days))
+            .Select(f => Judge(f, runs[f.Pair], alertStates, days))
             .ToArray();
 
         var control = runs[TerminalScenario.Control.Name];
@@ -43,11 +42,10 @@ internal static class DemoSummary
             falseAlarms.Length,
             control.Sum(r => r.Findings.Count),
             control.Count(r => r.Status == RunStatus.Failed),
-            falseAlarms,
-            alerts is not null);
+            falseAlarms);
     }
 
-    private static FaultOutcome Judge(ScenarioFault fault, IReadOnlyList<RunRecord> runs, IReadOnlyList<AlertState> alerts, bool alertsWired, int days)
+    private static FaultOutcome Judge(ScenarioFault fault, IReadOnlyList<RunRecord> runs, IReadOnlyList<AlertState> alerts, int days)
     {
         var fired = alerts
             .Where(a => a.Pair == fault.Pair && a.Kind == fault.Expected && a.FiredAt is { } at && TerminalScenario.DayOf(at) >= fault.Day)
@@ -63,12 +61,12 @@ internal static class DemoSummary
         string? evidence = null;
         if (fault.Expected == FindingKind.CheckFailing)
         {
-            // check_failing is the alert lifecycle's verdict on failed runs, not a finding of a run: with alerting
-            // wired it is the fired alert; without, the failed run is all the store can show.
+            // check_failing is not a finding of a run but the alert lifecycle's verdict on failed runs in a row:
+            // it counts when that alert fired; the evidence is the failed check's error.
             var failed = window.FirstOrDefault(r => r.Status == RunStatus.Failed);
-            if (failed is not null && (!alertsWired || fired is { } d && d <= fault.Deadline))
+            if (failed is not null && fired is { } d && d <= fault.Deadline)
             {
-                detected = alertsWired ? fired : TerminalScenario.DayOf(failed.StartedAt);
+                detected = d;
                 evidence = failed.Error;
             }
         }

@@ -17,7 +17,7 @@ internal enum FaultVerdict
 
 /// <param name="DetectedDay">The first day within the allowed lag that showed the expected signal.</param>
 /// <param name="Evidence">The finding's message, or the failed check's error, that counts as the detection.</param>
-/// <param name="AlertDay">The day the (pair, kind) alert fired; null when it did not or alerting is not wired.</param>
+/// <param name="AlertDay">The day the (pair, kind) alert fired; null when it did not fire.</param>
 internal sealed record FaultOutcome(
     ScenarioFault Fault,
     FaultVerdict Verdict,
