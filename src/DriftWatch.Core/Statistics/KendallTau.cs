@@ -1,3 +1,5 @@
+using System.Buffers;
+
 namespace DriftWatch.Core.Statistics;
 
 /// <summary>
@@ -101,7 +103,8 @@ internal static class KendallTau
         }
 
         var source = a;
-        var target = GC.AllocateUninitializedArray<int>(n);
+        var buffer = ArrayPool<int>.Shared.Rent(n);
+        var target = buffer;
         for (int width = Block; width < n; width *= 2)
         {
             for (int lo = 0; lo < n; lo += 2 * width)
@@ -142,6 +145,7 @@ internal static class KendallTau
             Array.Copy(source, a, n);
         }
 
+        ArrayPool<int>.Shared.Return(buffer);
         return inversions;
     }
 }

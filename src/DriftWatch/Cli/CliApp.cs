@@ -70,6 +70,7 @@ internal static class CliApp
         root.Subcommands.Add(HistoryCommand.Create(console));
         root.Subcommands.Add(BaselineCommand.Create(console));
         root.Subcommands.Add(AlertsCommand.Create(console));
+        root.Subcommands.Add(ReportCommand.Create(console));
         root.Subcommands.Add(DemoCommand.Create(console));
         return root;
     }
