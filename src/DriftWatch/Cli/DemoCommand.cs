@@ -65,7 +65,15 @@ internal static class DemoCommand
             DemoReport.Render(console.Out, run);
             if (parse.GetValue(serve))
             {
-                console.WriteWarning("--serve needs the dashboard, which is not part of this build yet; browse the results with 'driftwatch history' instead.");
+                try
+                {
+                    await DemoDashboard.ServeAsync(run, console, ct);
+                }
+                catch (DemoException ex)
+                {
+                    console.WriteError(ex.Message);
+                    return ExitCodes.UsageError;
+                }
             }
 
             return run.Outcome.ExitCode;

@@ -2,6 +2,7 @@ using System.Globalization;
 using DriftWatch.Cli;
 using DriftWatch.Configuration;
 using DriftWatch.Core.Configuration;
+using DriftWatch.Dashboard.Export;
 using DriftWatch.Hosting;
 using DriftWatch.Monitoring;
 using DriftWatch.Store;
@@ -61,10 +62,19 @@ internal sealed class DemoRunner(CliConsole console)
             }
         }
 
-        var outcome = await DemoSummary.BuildAsync(services.GetRequiredService<IHistoryStore>(), services.GetRequiredService<IAlertStore>(), options.Days, cancellationToken);
+        var history = services.GetRequiredService<IHistoryStore>();
+        var alerts = services.GetRequiredService<IAlertStore>();
+        var outcome = await DemoSummary.BuildAsync(history, alerts, options.Days, cancellationToken);
         var mail = Path.Combine(folder, DemoFolder.MailFolder);
         var mails = Directory.Exists(mail) ? Directory.GetFiles(mail, "*.eml").Length : 0;
-        return new DemoRun(folder, configPath, config, outcome, mails);
+
+        // The dashboard's pages as files, dated at the last simulated check so ages read as they would have then.
+        var reportFolder = Path.Combine(folder, DemoFolder.ReportFolder);
+        await StaticReport.WriteAsync(config, history, alerts, reportFolder, pair: null, clock, cancellationToken);
+        return new DemoRun(folder, configPath, config, outcome, mails, clock.UtcNow)
+        {
+            ReportPath = Path.Combine(reportFolder, "index.html"),
+        };
     }
 
     /// <summary>
@@ -120,7 +130,8 @@ internal sealed class DemoRunner(CliConsole console)
 }
 
 /// <summary>A finished demo: where its files are, the configuration it ran with, and what it found.</summary>
-internal sealed record DemoRun(string Folder, string ConfigPath, DriftWatchConfig Config, DemoOutcome Outcome, int MailFiles)
+/// <param name="LastCheck">The simulated time of the last check; the dashboard is served as of then.</param>
+internal sealed record DemoRun(string Folder, string ConfigPath, DriftWatchConfig Config, DemoOutcome Outcome, int MailFiles, DateTimeOffset LastCheck)
 {
     /// <summary>The static dashboard export (index.html), when one was written.</summary>
     public string? ReportPath { get; init; }

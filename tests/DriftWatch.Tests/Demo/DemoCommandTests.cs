@@ -126,6 +126,21 @@ public sealed class DemoCommandTests : IClassFixture<DemoCommandTests.FullDemo>
     }
 
     [Fact]
+    public void Demo_StaticReport_IsWrittenWithEveryPairsPage()
+    {
+        var report = Path.Combine(_demo.Folder.Path, DemoFolder.ReportFolder);
+        var index = File.ReadAllText(Path.Combine(report, "index.html"));
+
+        Assert.Contains("static report   " + Path.Combine(report, "index.html"), _demo.Run.Out, StringComparison.Ordinal);
+        Assert.All(TerminalScenario.Pairs, p =>
+        {
+            Assert.Contains(p.Name, index, StringComparison.Ordinal);
+            Assert.True(File.Exists(Path.Combine(report, "pairs", p.Name + ".html")), p.Name);
+        });
+        Assert.Contains("2026-11-21 23:30 UTC", index, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public void Demo_WrittenConfiguration_LoadsThroughTheLoaderWithSixDailyPairs()
     {
         var result = ConfigLoader.Load(Path.Combine(_demo.Folder.Path, DemoFolder.ConfigFile), _ => null);
