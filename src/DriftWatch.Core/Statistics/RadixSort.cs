@@ -105,11 +105,61 @@ internal static class RadixSort
         return (resultKeys, resultRows);
     }
 
-    /// <summary>Sorted copy of the values (for the Kolmogorov–Smirnov statistic).</summary>
-    public static double[] SortedCopy(double[] values)
+    /// <summary>
+    /// The sorted keys alone (for the Kolmogorov–Smirnov statistic, which needs order and equality,
+    /// not values or rows).
+    /// </summary>
+    public static ulong[] SortKeys(double[] values)
     {
-        var copy = (double[])values.Clone();
-        Array.Sort(copy);
-        return copy;
+        ArgumentNullException.ThrowIfNull(values);
+        int n = values.Length;
+        var keys = GC.AllocateUninitializedArray<ulong>(n);
+        var counts = new int[Passes * Buckets];
+        for (int i = 0; i < n; i++)
+        {
+            ulong key = Key(values[i]);
+            keys[i] = key;
+            for (int pass = 0; pass < Passes; pass++)
+            {
+                counts[(pass * Buckets) + (int)((key >> (pass * DigitBits)) & (Buckets - 1))]++;
+            }
+        }
+
+        var buffer = ArrayPool<ulong>.Shared.Rent(n);
+        var source = keys;
+        var target = buffer;
+        var offsets = new int[Buckets];
+        for (int pass = 0; pass < Passes && n > 0; pass++)
+        {
+            int baseIndex = pass * Buckets;
+            int shift = pass * DigitBits;
+            if (counts[baseIndex + (int)((source[0] >> shift) & (Buckets - 1))] == n)
+            {
+                continue;
+            }
+
+            int running = 0;
+            for (int b = 0; b < Buckets; b++)
+            {
+                offsets[b] = running;
+                running += counts[baseIndex + b];
+            }
+
+            for (int i = 0; i < n; i++)
+            {
+                ulong key = source[i];
+                target[offsets[(int)(key >> shift) & (Buckets - 1)]++] = key;
+            }
+
+            (source, target) = (target, source);
+        }
+
+        if (!ReferenceEquals(source, keys))
+        {
+            Array.Copy(source, keys, n);
+        }
+
+        ArrayPool<ulong>.Shared.Return(buffer);
+        return keys;
     }
 }
