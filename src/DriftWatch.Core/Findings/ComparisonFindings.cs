@@ -10,13 +10,8 @@ namespace DriftWatch.Core.Findings;
 /// </summary>
 internal static class ComparisonFindings
 {
-    /// <param name="baselineRunUsed">
-    /// Usable rows per run of the runs pooled into the baseline (<c>StoredBaseline.MeanRunUsed</c>); null when the
-    /// baseline is a single extract, whose own count is then used.
-    /// </param>
     public static List<Finding> Of(
-        RelationshipProfile cur, PairedSample curSample, RelationshipProfile bas, PairedSample basSample, PairExpectation expect, Thresholds t, ColumnNames c,
-        double? baselineRunUsed = null)
+        RelationshipProfile cur, PairedSample curSample, RelationshipProfile bas, PairedSample basSample, PairExpectation expect, Thresholds t, ColumnNames c)
     {
         var findings = new List<Finding>();
         bool bothDefined = cur.Shape != Shape.Undefined && bas.Shape != Shape.Undefined;
@@ -28,7 +23,7 @@ internal static class ComparisonFindings
             ShapeChanges(cur, bas, t, c, findings);
         }
 
-        Rows(cur, bas, baselineRunUsed, t, c, findings);
+        Rows(cur, bas, t, c, findings);
         Marginals(cur, curSample, bas, basSample, t, c, findings);
         return findings;
     }
@@ -195,7 +190,7 @@ internal static class ComparisonFindings
         }
     }
 
-    private static void Rows(RelationshipProfile cur, RelationshipProfile bas, double? baselineRunUsed, Thresholds t, ColumnNames c, List<Finding> findings)
+    private static void Rows(RelationshipProfile cur, RelationshipProfile bas, Thresholds t, ColumnNames c, List<Finding> findings)
     {
         if (cur.NRows > 0 && bas.NRows > 0)
         {
@@ -213,20 +208,15 @@ internal static class ComparisonFindings
             }
         }
 
-        // A pooled baseline's own count is the size of the pool (several runs); one run is compared with one run.
-        double usedBefore = baselineRunUsed is { } perRun && perRun > 0 ? perRun : bas.NUsed;
-        if (usedBefore > 0 && cur.NUsed < t.SampleShrinkRatio * usedBefore)
+        if (bas.NUsed > 0 && cur.NUsed < t.SampleShrinkRatio * bas.NUsed)
         {
-            double ratio = cur.NUsed / usedBefore;
-            string against = baselineRunUsed is { } m && m > 0
-                ? $"{Numbers.Count((long)Math.Round(m))} per run in the baseline"
-                : $"{Numbers.Count(bas.NUsed)} in the baseline";
+            double ratio = (double)cur.NUsed / bas.NUsed;
             findings.Add(new Finding(
                 FindingKind.SampleShrank,
                 Severity.Warning,
                 null,
                 ratio,
-                $"Only {Numbers.Count(cur.NUsed)} usable rows against {against} ({Numbers.Percent(ratio)}): the window or filter may be missing data, and every comparison has less power."));
+                $"Only {Numbers.Count(cur.NUsed)} usable rows against {Numbers.Count(bas.NUsed)} in the baseline ({Numbers.Percent(ratio)}): the window or filter may be missing data, and every comparison has less power."));
         }
     }
 

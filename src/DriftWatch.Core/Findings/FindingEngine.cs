@@ -47,9 +47,7 @@ public static class FindingEngine
     /// <summary>
     /// What the monitor calls: the profile's own findings plus, with a baseline, the comparison,
     /// without findings another one already explains, ordered by severity (worst first).
-    /// Without a baseline sample the marginal (Kolmogorov–Smirnov) tests are skipped. A baseline pooled from
-    /// several runs passes <paramref name="baselineRunUsed"/> (usable rows per pooled run), so a run's size is
-    /// compared with a run's, not with the pool's.
+    /// Without a baseline sample the marginal (Kolmogorov–Smirnov) tests are skipped.
     /// </summary>
     public static IReadOnlyList<Finding> Assess(
         RelationshipProfile current,
@@ -59,8 +57,7 @@ public static class FindingEngine
         PairExpectation expect,
         Thresholds t,
         string xName = "x",
-        string yName = "y",
-        double? baselineRunUsed = null)
+        string yName = "y")
     {
         ArgumentNullException.ThrowIfNull(current);
         ArgumentNullException.ThrowIfNull(currentSample);
@@ -70,7 +67,7 @@ public static class FindingEngine
         var own = ProfileFindings.Of(current, expect, t, names);
         var comparison = baseline is null
             ? []
-            : ComparisonFindings.Of(current, currentSample, baseline, baselineSample ?? PairedSample.Empty, expect, t, names, baselineRunUsed);
+            : ComparisonFindings.Of(current, currentSample, baseline, baselineSample ?? PairedSample.Empty, expect, t, names);
         return FindingDeduplication.Merge(own, comparison, current, baseline, t);
     }
 }

@@ -39,7 +39,7 @@ internal sealed class PairChecker(
             sampled = await sources.Create(source).SampleAsync(pair, startedAt, cancellationToken);
             profile = Profiler.Profile(sampled.Sample, pair.Thresholds);
             baseline = await baselines.GetOrBuildAsync(pair, startedAt, cancellationToken);
-            findings = FindingEngine.Assess(profile, sampled.Sample, baseline?.Profile, baseline?.Points, pair.Expect, pair.Thresholds, pair.X, pair.Y, baseline?.MeanRunUsed);
+            findings = FindingEngine.Assess(profile, sampled.Sample, baseline?.Profile, baseline?.Points, pair.Expect, pair.Thresholds, pair.X, pair.Y);
         }
         catch (OperationCanceledException) when (cancellationToken.IsCancellationRequested)
         {
