@@ -14,13 +14,13 @@ internal static class DemoCommand
         ArgumentNullException.ThrowIfNull(console);
         var days = new Option<int>("--days")
         {
-            Description = $"Simulated days (default {TerminalScenario.DefaultDays}; the faults start on days 8 to 19).",
+            Description = $"Simulated days, 1 to {DemoOptions.MaxDays}; the faults start on days 8 to 19, so fewer days show fewer of them.",
             DefaultValueFactory = _ => TerminalScenario.DefaultDays,
             HelpName = "N",
         };
         var output = new Option<string>("--out", "-o")
         {
-            Description = $"The output folder (default {DemoFolder.DefaultPath}). It is deleted and recreated, but only if a previous demo made it (or it is empty).",
+            Description = "The output folder. It is deleted and recreated, but only if a previous demo made it (or it is empty); any other folder is refused.",
             DefaultValueFactory = _ => DemoFolder.DefaultPath,
             HelpName = "DIR",
         };
@@ -35,6 +35,7 @@ internal static class DemoCommand
             Description = "Afterwards, serve the dashboard on 127.0.0.1 to browse the result (Ctrl+C stops it).",
         };
         var verbose = VerboseOption.Create();
+        verbose.Description = "Log each step of the flow (information level) to stderr; by default only errors are logged, the day lines say the rest.";
         var command = new Command(
             "demo",
             $"Run an embedded scenario end to end: {TerminalScenario.TerminalName}, an invented inland container terminal whose daily " +
@@ -58,6 +59,11 @@ internal static class DemoCommand
             catch (DemoException ex)
             {
                 console.WriteError(ex.Message);
+                return ExitCodes.UsageError;
+            }
+            catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+            {
+                console.WriteError($"cannot write the demo's output to {options.Out}: {ex.Message}");
                 return ExitCodes.UsageError;
             }
 

@@ -27,7 +27,8 @@ internal static class DemoConfigFile
             # Written by 'driftwatch demo'; every key is described in docs/configuration.md.
             # The data is invented: each table gets one load a day, and five pairs are broken on purpose.
             # To look around afterwards:
-            #   driftwatch history crane-hours-vs-moves --config {DemoFolder.DefaultPath}/{DemoFolder.ConfigFile}
+            #   driftwatch history crane-hours-vs-moves --config <this file>
+            #   driftwatch report --config <this file> --out <folder>
 
             sources:
               - name: {SourceName}
