@@ -5,7 +5,7 @@ using ScottPlot;
 namespace DriftWatch.Plots;
 
 /// <summary>
-/// Pearson r per run over time for the dashboard: the baseline's r as a dashed line inside its confidence
+/// Pearson r per run over time for the dashboard: the baseline's r as a line (dashed in PNG) inside its confidence
 /// band, the runs as a line, and a marker on every run with findings, shaped and coloured by severity.
 /// </summary>
 internal static class CorrelationHistoryChart

@@ -182,7 +182,7 @@ internal static class PairPage
         var baseline = detail.Summary.Baseline is { } b
             ? $"grey: the baseline's reservoir of {Display.Count(b.Points.UsedCount)} points from {Display.Count(b.RunCount)} runs"
             : "no baseline yet";
-        return $"{current}; {baseline}. Solid and dashed lines: least-squares fits.";
+        return $"{current}; {baseline}. Lines: least-squares fits (grey: baseline, teal: current).";
     }
 
     private static string TrendCaption(PairDetail detail)
