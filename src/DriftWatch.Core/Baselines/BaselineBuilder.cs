@@ -20,6 +20,10 @@ public static class BaselineBuilder
     /// <remarks>
     /// The pooled sample carries null, non-finite and non-numeric counts scaled to its size, so the
     /// baseline's drop rates equal those of the pooled runs (the stored points are usable rows only).
+    /// The profile's figures come from the pooled points, but its row counts (n_rows, n_used, n_null,
+    /// n_nonfinite, n_non_numeric) are the pooled runs' means: a check compares its own run with a typical
+    /// run, so a pool of five small runs does not make every new run look "shrunk", and tests that weigh the
+    /// baseline by its n stay conservative instead of crediting it with several runs' worth of rows.
     /// The reservoir seed derives from the pair's name: the same runs always give the same baseline.
     /// </remarks>
     public static StoredBaseline? Build(
@@ -47,11 +51,12 @@ public static class BaselineBuilder
         }
 
         var reservoir = new PointReservoir(capacity, StableSeed.FromName(pair));
-        long used = 0, nulls = 0, nonFinite = 0, nonNumeric = 0;
+        long rows = 0, used = 0, nulls = 0, nonFinite = 0, nonNumeric = 0;
         foreach (var run in pooled)
         {
             reservoir.AddRange(run.Points!);
             var counts = RunCounts.Of(run);
+            rows += counts.Rows;
             used += counts.Used;
             nulls += counts.Null;
             nonFinite += counts.NonFinite;
@@ -60,6 +65,15 @@ public static class BaselineBuilder
 
         var scale = used == 0 ? 0.0 : reservoir.Count / (double)used;
         var sample = reservoir.ToSample(Scaled(nulls, scale), Scaled(nonFinite, scale), Scaled(nonNumeric, scale));
+        var runCount = (double)pooled.Count;
+        var profile = profiler(sample) with
+        {
+            NRows = Mean(rows, runCount),
+            NUsed = Mean(used, runCount),
+            NNull = Mean(nulls, runCount),
+            NNonfinite = Mean(nonFinite, runCount),
+            NNonNumeric = Mean(nonNumeric, runCount),
+        };
         return new StoredBaseline(
             pair,
             policy.Kind,
@@ -68,19 +82,21 @@ public static class BaselineBuilder
             pooled[0].StartedAt,
             pooled[^1].StartedAt,
             pooled.Count,
-            profiler(sample),
+            profile,
             sample,
             accepted,
             used / (double)pooled.Count);
     }
 
+    private static int Mean(long total, double count) => (int)Math.Round(total / count, MidpointRounding.AwayFromZero);
+
     private static int Scaled(long count, double scale) => (int)Math.Round(count * scale, MidpointRounding.AwayFromZero);
 
     /// <summary>A run's own counts: from its profile (the full sample) when present, else from its stored points.</summary>
-    private readonly record struct RunCounts(long Used, long Null, long NonFinite, long NonNumeric)
+    private readonly record struct RunCounts(long Rows, long Used, long Null, long NonFinite, long NonNumeric)
     {
         public static RunCounts Of(RunRecord run) => run.Profile is { } p
-            ? new RunCounts(p.NUsed, p.NNull, p.NNonfinite, p.NNonNumeric)
-            : new RunCounts(run.Points!.UsedCount, run.Points.NullCount, run.Points.NonFiniteCount, run.Points.NonNumericCount);
+            ? new RunCounts(p.NRows, p.NUsed, p.NNull, p.NNonfinite, p.NNonNumeric)
+            : new RunCounts(run.Points!.RowCount, run.Points.UsedCount, run.Points.NullCount, run.Points.NonFiniteCount, run.Points.NonNumericCount);
     }
 }

@@ -5,7 +5,8 @@ namespace DriftWatch.Core.History;
 
 /// <summary>
 /// The reference a pair is compared with: a profile of pooled points plus a bounded reservoir of those
-/// points (for plots and the Kolmogorov–Smirnov test).
+/// points (for plots and the Kolmogorov–Smirnov test). The profile's figures describe the pooled points; its
+/// row counts are the pooled runs' means (see <c>BaselineBuilder</c>), so they compare with one run's.
 /// </summary>
 /// <param name="MeanRunUsed">
 /// Mean usable rows per pooled run (from the runs' own profiles). The pooled profile's counts describe the

@@ -70,7 +70,8 @@ internal sealed class CenteredColumn
         }
 
         double maxAbs = Math.Max(Math.Abs(min), Math.Abs(max));
-        int exponent = maxAbs == 0 ? 0 : Math.ILogB(maxAbs) + 1;
+        // Subnormal columns would need a factor above 2^1023, which overflows; 2^1021 is enough there.
+        int exponent = maxAbs == 0 ? 0 : Math.Max(Math.ILogB(maxAbs) + 1, -1021);
         double factor = Math.ScaleB(1.0, -exponent);
         if (min == max)
         {

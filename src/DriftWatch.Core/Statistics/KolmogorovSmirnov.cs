@@ -7,7 +7,7 @@ namespace DriftWatch.Core.Statistics;
 /// </summary>
 internal static class KolmogorovSmirnov
 {
-    /// <returns>D = sup |F1 − F2| and its asymptotic p, or null when a sample is empty.</returns>
+    /// <returns>D = sup |F1 − F2| and its asymptotic p, or null when a sample is empty. Values must be finite.</returns>
     public static (double D, double P)? TwoSample(double[] a, double[] b)
     {
         ArgumentNullException.ThrowIfNull(a);
@@ -17,10 +17,9 @@ internal static class KolmogorovSmirnov
             return null;
         }
 
-        var x = (double[])a.Clone();
-        var y = (double[])b.Clone();
-        Array.Sort(x);
-        Array.Sort(y);
+        // Sorted order-preserving keys: equal keys are equal values, so the statistic needs nothing else.
+        var x = RadixSort.SortKeys(a);
+        var y = RadixSort.SortKeys(b);
         double d = Statistic(x, y);
         double ne = (double)x.Length * y.Length / (x.Length + y.Length);
         double sqrtNe = Math.Sqrt(ne);
@@ -28,15 +27,15 @@ internal static class KolmogorovSmirnov
         return (d, Survival(lambda));
     }
 
-    /// <summary>sup |F1 − F2| over sorted samples; tied values advance both sides before comparing.</summary>
-    internal static double Statistic(double[] sortedA, double[] sortedB)
+    /// <summary>sup |F1 − F2| over sorted keys (<see cref="RadixSort.Key"/>); tied values advance both sides before comparing.</summary>
+    internal static double Statistic(ulong[] sortedA, ulong[] sortedB)
     {
         int n1 = sortedA.Length, n2 = sortedB.Length;
         int i = 0, j = 0;
         double d = 0;
         while (i < n1 && j < n2)
         {
-            double v = Math.Min(sortedA[i], sortedB[j]);
+            ulong v = Math.Min(sortedA[i], sortedB[j]);
             while (i < n1 && sortedA[i] == v)
             {
                 i++;

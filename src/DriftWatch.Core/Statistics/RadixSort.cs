@@ -1,3 +1,5 @@
+using System.Buffers;
+
 namespace DriftWatch.Core.Statistics;
 
 /// <summary>
@@ -29,6 +31,28 @@ internal static class RadixSort
         int n = values.Length;
         var keys = GC.AllocateUninitializedArray<ulong>(n);
         var rows = GC.AllocateUninitializedArray<int>(n);
+        var keysOut = ArrayPool<ulong>.Shared.Rent(n);
+        var rowsOut = ArrayPool<int>.Shared.Rent(n);
+        try
+        {
+            return Sort(values, keys, rows, keysOut, rowsOut);
+        }
+        finally
+        {
+            ArrayPool<ulong>.Shared.Return(keysOut);
+            ArrayPool<int>.Shared.Return(rowsOut);
+        }
+    }
+
+    /// <summary>
+    /// The sort proper; the scatter buffers (at least n long) come from the pool. An odd number of
+    /// passes leaves the result in a buffer, so it is copied back into the caller's arrays.
+    /// </summary>
+    private static (ulong[] Keys, int[] Rows) Sort(double[] values, ulong[] keys, int[] rows, ulong[] keysOut, int[] rowsOut)
+    {
+        int n = values.Length;
+        var resultKeys = keys;
+        var resultRows = rows;
         var counts = new int[Passes * Buckets];
         for (int i = 0; i < n; i++)
         {
@@ -41,13 +65,11 @@ internal static class RadixSort
             }
         }
 
-        var keysOut = GC.AllocateUninitializedArray<ulong>(n);
-        var rowsOut = GC.AllocateUninitializedArray<int>(n);
         var offsets = new int[Buckets];
         for (int pass = 0; pass < Passes; pass++)
         {
             int baseIndex = pass * Buckets;
-            int first = (int)((keys.Length > 0 ? keys[0] : 0) >> (pass * DigitBits)) & (Buckets - 1);
+            int first = (int)((n > 0 ? keys[0] : 0) >> (pass * DigitBits)) & (Buckets - 1);
             if (n == 0 || counts[baseIndex + first] == n)
             {
                 // Every key has the same digit here: the pass would not move anything.
@@ -74,14 +96,70 @@ internal static class RadixSort
             (rows, rowsOut) = (rowsOut, rows);
         }
 
-        return (keys, rows);
+        if (!ReferenceEquals(keys, resultKeys))
+        {
+            Array.Copy(keys, resultKeys, n);
+            Array.Copy(rows, resultRows, n);
+        }
+
+        return (resultKeys, resultRows);
     }
 
-    /// <summary>Sorted copy of the values (for the Kolmogorov–Smirnov statistic).</summary>
-    public static double[] SortedCopy(double[] values)
+    /// <summary>
+    /// The sorted keys alone (for the Kolmogorov–Smirnov statistic, which needs order and equality,
+    /// not values or rows).
+    /// </summary>
+    public static ulong[] SortKeys(double[] values)
     {
-        var copy = (double[])values.Clone();
-        Array.Sort(copy);
-        return copy;
+        ArgumentNullException.ThrowIfNull(values);
+        int n = values.Length;
+        var keys = GC.AllocateUninitializedArray<ulong>(n);
+        var counts = new int[Passes * Buckets];
+        for (int i = 0; i < n; i++)
+        {
+            ulong key = Key(values[i]);
+            keys[i] = key;
+            for (int pass = 0; pass < Passes; pass++)
+            {
+                counts[(pass * Buckets) + (int)((key >> (pass * DigitBits)) & (Buckets - 1))]++;
+            }
+        }
+
+        var buffer = ArrayPool<ulong>.Shared.Rent(n);
+        var source = keys;
+        var target = buffer;
+        var offsets = new int[Buckets];
+        for (int pass = 0; pass < Passes && n > 0; pass++)
+        {
+            int baseIndex = pass * Buckets;
+            int shift = pass * DigitBits;
+            if (counts[baseIndex + (int)((source[0] >> shift) & (Buckets - 1))] == n)
+            {
+                continue;
+            }
+
+            int running = 0;
+            for (int b = 0; b < Buckets; b++)
+            {
+                offsets[b] = running;
+                running += counts[baseIndex + b];
+            }
+
+            for (int i = 0; i < n; i++)
+            {
+                ulong key = source[i];
+                target[offsets[(int)(key >> shift) & (Buckets - 1)]++] = key;
+            }
+
+            (source, target) = (target, source);
+        }
+
+        if (!ReferenceEquals(source, keys))
+        {
+            Array.Copy(source, keys, n);
+        }
+
+        ArrayPool<ulong>.Shared.Return(buffer);
+        return keys;
     }
 }

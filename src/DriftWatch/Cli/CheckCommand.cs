@@ -44,7 +44,7 @@ internal static class CheckCommand
             }
 
             await using var services = await CliServices.StartAsync(loaded, parse.GetValue(verbose), ct);
-            var progress = new Progress<PairCheckResult>(r => console.Error.WriteLine(
+            var progress = new ImmediateProgress<PairCheckResult>(r => console.Error.WriteLine(
                 r.Status == RunStatus.Failed
                     ? $"  failed  {r.Pair.Name}: {r.Error}"
                     : $"  checked {r.Pair.Name} ({r.Findings.Count} finding{(r.Findings.Count == 1 ? "" : "s")})"));

@@ -27,6 +27,9 @@ internal static class ThresholdsSection
         ("sample_shrink_ratio", NumberRange.Fraction, (t, v) => t with { SampleShrinkRatio = v }),
         ("no_relationship_r", NumberRange.Fraction, (t, v) => t with { NoRelationshipR = v }),
         ("min_offset_shift_sds", NumberRange.NonNegative, (t, v) => t with { MinOffsetShiftSds = v }),
+        ("leverage_hat", new NumberRange(0, true, 1, true), (t, v) => t with { LeverageHat = v }),
+        ("strong_relationship_r", NumberRange.Fraction, (t, v) => t with { StrongRelationshipR = v }),
+        ("min_ks_statistic", NumberRange.Fraction, (t, v) => t with { MinKsStatistic = v }),
     ];
 
     public static IEnumerable<string> Keys => Entries.Select(e => e.Key);

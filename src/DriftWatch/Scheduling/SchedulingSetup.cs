@@ -26,6 +26,14 @@ internal static class SchedulingSetup
                     .WithMisfireInstruction(CronTriggerMisfireInstruction.FireAndProceed)));
         }
 
+        var maintenanceKey = new JobKey("store-retention", "maintenance");
+        quartz.AddJob<StoreMaintenanceJob>(job => job.WithIdentity(maintenanceKey).WithDescription("apply the store's retention"));
+        quartz.AddTrigger(trigger => trigger
+            .ForJob(maintenanceKey)
+            .WithIdentity("store-retention", "maintenance")
+            .WithSchedule(SimpleScheduleBuilder.Create().WithInterval(StoreMaintenanceJob.Every).RepeatForever()
+                .WithMisfireInstruction(SimpleTriggerMisfireInstruction.NextWithRemainingCount)));
+
         var alertKey = new JobKey("evaluate-alerts", "alerts");
         quartz.AddJob<AlertCycleJob>(job => job.WithIdentity(alertKey).WithDescription("evaluate alerts and deliver the outbox"));
         quartz.AddTrigger(trigger => trigger

@@ -10,7 +10,7 @@ namespace DriftWatch.Store;
 /// transaction, recording them in schema_migrations. Safe to run at every start and from several
 /// instances at once (PostgreSQL: an advisory lock; SQLite: the write lock of BEGIN IMMEDIATE).
 /// </summary>
-internal sealed class MigrationRunner(IStoreDatabase database)
+internal sealed class MigrationRunner(IStoreDatabase database, TimeProvider? time = null)
 {
     // Any fixed 64-bit number; identifies "driftwatch schema migration" among advisory locks.
     private const long AdvisoryLockKey = 0x44_72_69_66_74_57_01;
@@ -48,13 +48,13 @@ internal sealed class MigrationRunner(IStoreDatabase database)
         return applied;
     }
 
-    private static async Task ApplyAsync(DbConnection connection, MigrationScript script, CancellationToken cancellationToken)
+    private async Task ApplyAsync(DbConnection connection, MigrationScript script, CancellationToken cancellationToken)
     {
         await using var transaction = await connection.BeginTransactionAsync(cancellationToken);
         await connection.ExecuteAsync(new CommandDefinition(script.Sql, transaction: transaction, cancellationToken: cancellationToken));
         await connection.ExecuteAsync(new CommandDefinition(
             "INSERT INTO schema_migrations (version, name, applied_at_ms) VALUES (@Version, @Name, @At)",
-            new { script.Version, script.Name, At = DateTimeOffset.UtcNow.ToUnixTimeMilliseconds() },
+            new { script.Version, script.Name, At = (time ?? TimeProvider.System).GetUtcNow().ToUnixTimeMilliseconds() },
             transaction,
             cancellationToken: cancellationToken));
         await transaction.CommitAsync(cancellationToken);

@@ -32,6 +32,9 @@ public sealed class BaselineBuilderTests
         Assert.Equal(BaselinePolicyKind.FirstRuns, baseline.Policy);
         Assert.Equal("first_runs: 3", baseline.PolicyText);
         Assert.Equal(3.5, baseline.MeanRunUsed);
+        // Counts are a typical run's (mean of 4 and 3, rounded half away from zero), not the pool's 7.
+        Assert.Equal(4, baseline.Profile.NUsed);
+        Assert.Equal(7, baseline.Points.UsedCount);
         Assert.False(baseline.Accepted);
     }
 
@@ -94,5 +97,20 @@ public sealed class BaselineBuilderTests
         Assert.Equal(100, baseline.Points.NullCount); // 400 · 500 / 2000
         Assert.Equal(1.0 / 6, baseline.Points.NullCount / (double)baseline.Points.RowCount, 12);
         Assert.Equal(1000, baseline.MeanRunUsed);
+        Assert.Equal(1000, baseline.Profile.NUsed);
+        Assert.Equal(200, baseline.Profile.NNull);
+        Assert.Equal(1200, baseline.Profile.NRows);
+    }
+
+    [Fact]
+    public void Build_ManySmallRuns_ProfileCountsMatchOneRun_SoAFreshRunDoesNotLookShrunk()
+    {
+        var runs = Enumerable.Range(0, 10).Select(i => LineRun(i + 1, i, 300, offset: i * 300)).ToList();
+
+        var baseline = BaselineBuilder.Build("p", FirstThree, runs, T0, MathNetProfile)!;
+
+        Assert.Equal(3000, baseline.Points.UsedCount);
+        Assert.Equal(300, baseline.Profile.NUsed);
+        Assert.Equal(300, baseline.Profile.NRows);
     }
 }

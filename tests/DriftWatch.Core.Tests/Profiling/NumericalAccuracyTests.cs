@@ -103,6 +103,26 @@ public sealed class NumericalAccuracyTests
         Assert.Equal(unit.QuadraticP!.Value, big.QuadraticP!.Value, 9);
     }
 
+    [Theory]
+    [InlineData(1e-310)]
+    [InlineData(5e306)]
+    public void Profile_EdgeOfTheDoubleRange_StaysFiniteAndClose(double scale)
+    {
+        // Subnormal inputs carry fewer digits themselves, and y · 5e306 comes within a factor 1.5 of double.MaxValue:
+        // figures must stay finite and close to the unit-scale ones.
+        var random = new Random(6);
+        var x = Generated.Uniform(random, 200, 1, 10);
+        var y = Generated.Line(random, x, 3, 2, 1);
+        var unit = Profile(x, y);
+        var edge = Profile([.. x.Select(v => v * scale)], [.. y.Select(v => v * scale)]);
+
+        AssertNoNonFinite(edge);
+        Assert.Equal(200, edge.NUsed);
+        Assert.Equal(unit.PearsonR!.Value, edge.PearsonR!.Value, 5);
+        Assert.Equal(unit.Shape, edge.Shape);
+        Assert.NotNull(edge.Slope);
+    }
+
     [Fact]
     public void Profile_ConstantX_IsUndefinedWithReasonAndNoNaN()
     {

@@ -35,6 +35,25 @@ public sealed class RadixSortTests
         }
     }
 
+    [Theory]
+    [InlineData(1)]
+    [InlineData(2)]
+    public void SortKeys_MixedValues_AreTheKeysOfArraySortsOrder(int seed)
+    {
+        var random = new Random(seed);
+        var values = Enumerable.Range(0, 3000).Select(_ => random.Next(4) switch
+        {
+            0 => -0.0,
+            1 => (random.NextDouble() - 0.5) * 1e200,
+            2 => Math.Round(random.NextDouble() * 5),
+            _ => -random.NextDouble(),
+        }).ToArray();
+        var expected = (double[])values.Clone();
+        Array.Sort(expected);
+
+        Assert.Equal(expected.Select(RadixSort.Key), RadixSort.SortKeys(values));
+    }
+
     [Fact]
     public void Sort_Empty_ReturnsEmpty()
     {

@@ -70,6 +70,14 @@ public sealed class PostgresFiguresTests(PostgresServer server) : PostgresSource
         AssertClose(intercept, figures.Intercept);
         AssertClose(all.Sample.X.Mean(), figures.XMean);
         AssertClose(all.Sample.Y.Variance(), figures.YVariance);
+
+        // And the engine's own profile of the same rows agrees with the database's push-down.
+        var profile = DriftWatch.Core.Profiling.Profiler.Profile(all.Sample, DriftWatch.Core.Statistics.Thresholds.Default);
+        AssertClose(figures.PearsonR!.Value, profile.PearsonR);
+        AssertClose(figures.Slope!.Value, profile.Slope);
+        AssertClose(figures.Intercept!.Value, profile.Intercept);
+        Assert.Equal(figures.UsedCount, profile.NUsed);
+        Assert.Equal(figures.RowCount, profile.NRows);
     }
 
     [Fact]

@@ -1,0 +1,178 @@
+using System.Text.Json;
+using MathNet.Numerics.Statistics;
+using Microsoft.Data.Sqlite;
+
+namespace DriftWatch.Tests.Cli;
+
+/// <summary>
+/// <c>check</c>, <c>history</c> and <c>baseline</c> end to end in-process, on a real SQLite source and a
+/// real SQLite store in a temporary folder. Expected figures come from MathNet.Numerics as an independent oracle.
+/// </summary>
+public sealed class CheckCommandTests : IDisposable
+{
+    private readonly string _folder = Path.Combine(Path.GetTempPath(), "dw-check-" + Guid.NewGuid().ToString("N"));
+    private readonly double[] _x;
+    private readonly double[] _y;
+
+    public CheckCommandTests()
+    {
+        Directory.CreateDirectory(_folder);
+        var random = new Random(20261202);
+        _x = [.. Enumerable.Range(0, 400).Select(_ => 10 + (random.NextDouble() * 90))];
+        _y = [.. _x.Select(v => (2.5 * v) + 40 + ((random.NextDouble() - 0.5) * 30))];
+        using var connection = Open();
+        Execute(connection, "CREATE TABLE shifts (crew_hours REAL, pallets REAL)");
+        using var transaction = connection.BeginTransaction();
+        for (var i = 0; i < _x.Length; i++)
+        {
+            using var insert = connection.CreateCommand();
+            insert.CommandText = "INSERT INTO shifts VALUES ($x, $y)";
+            insert.Parameters.AddWithValue("$x", _x[i]);
+            insert.Parameters.AddWithValue("$y", _y[i]);
+            insert.ExecuteNonQuery();
+        }
+
+        transaction.Commit();
+        File.WriteAllText(ConfigPath, """
+            sources:
+              - name: floor
+                kind: sqlite
+                connection: floor.db
+            store:
+              connection: store.db
+            pairs:
+              - name: hours-vs-pallets
+                source: floor
+                table: shifts
+                x: crew_hours
+                y: pallets
+                sample:
+                  method: all
+                baseline:
+                  first_runs: 2
+            """);
+    }
+
+    private string ConfigPath => Path.Combine(_folder, "driftwatch.yaml");
+
+    [Fact]
+    public async Task Check_HealthyPair_ExitsZeroAndReportsThePearsonROfAllRows()
+    {
+        var run = await CliRun.Of("check", "--config", ConfigPath, "--format", "json");
+
+        Assert.Equal(0, run.ExitCode);
+        using var json = JsonDocument.Parse(run.Out);
+        var pair = json.RootElement.GetProperty("pairs")[0];
+        Assert.Equal("succeeded", pair.GetProperty("status").GetString());
+        var profile = pair.GetProperty("profile");
+        Assert.Equal(_x.Length, profile.GetProperty("n_used").GetInt32());
+        // Oracle: MathNet.Numerics' Pearson over the same 400 rows.
+        Assert.Equal(Correlation.Pearson(_x, _y), profile.GetProperty("pearson_r").GetDouble(), 12);
+    }
+
+    [Fact]
+    public async Task Check_ColumnCopiedAfterBaseline_ExitsOneWithBecamePerfect()
+    {
+        Assert.Equal(0, (await CliRun.Of("check", "--config", ConfigPath)).ExitCode);
+        Assert.Equal(0, (await CliRun.Of("check", "--config", ConfigPath)).ExitCode);
+        using (var connection = Open())
+        {
+            Execute(connection, "UPDATE shifts SET pallets = crew_hours");
+        }
+
+        var run = await CliRun.Of("check", "--config", ConfigPath, "--format", "json");
+
+        Assert.Equal(1, run.ExitCode);
+        using var json = JsonDocument.Parse(run.Out);
+        var findings = json.RootElement.GetProperty("pairs")[0].GetProperty("findings").EnumerateArray().ToList();
+        var perfect = Assert.Single(findings, f => f.GetProperty("kind").GetString() == "became_perfect");
+        Assert.Equal("critical", perfect.GetProperty("severity").GetString());
+
+        var history = await CliRun.Of("history", "hours-vs-pallets", "--config", ConfigPath, "--format", "json");
+        Assert.Equal(0, history.ExitCode);
+        using var runs = JsonDocument.Parse(history.Out);
+        Assert.Equal(3, runs.RootElement.GetProperty("runs").GetArrayLength());
+        Assert.True(runs.RootElement.GetProperty("runs")[0].GetProperty("profile").GetProperty("exact_identity").GetBoolean());
+    }
+
+    [Fact]
+    public async Task BaselineAccept_AfterIntentionalChange_StopsTheFinding()
+    {
+        await CliRun.Of("check", "--config", ConfigPath);
+        await CliRun.Of("check", "--config", ConfigPath);
+        using (var connection = Open())
+        {
+            // An intentional re-modelling: pallets now counted in half-pallet units (y doubles).
+            Execute(connection, "UPDATE shifts SET pallets = pallets * 2");
+        }
+
+        Assert.Equal(1, (await CliRun.Of("check", "--config", ConfigPath)).ExitCode);
+        var accept = await CliRun.Of("baseline", "accept", "hours-vs-pallets", "--config", ConfigPath);
+        Assert.Equal(0, accept.ExitCode);
+        Assert.Contains("accepted", accept.Out, StringComparison.Ordinal);
+
+        Assert.Equal(0, (await CliRun.Of("check", "--config", ConfigPath)).ExitCode);
+    }
+
+    [Fact]
+    public async Task Check_MissingTable_ExitsThreeNamingTheTableAndRecordsAFailedRun()
+    {
+        using (var connection = Open())
+        {
+            Execute(connection, "ALTER TABLE shifts RENAME TO shifts_v2");
+        }
+
+        var run = await CliRun.Of("check", "--config", ConfigPath, "--format", "json");
+
+        Assert.Equal(3, run.ExitCode);
+        using var json = JsonDocument.Parse(run.Out);
+        var pair = json.RootElement.GetProperty("pairs")[0];
+        Assert.Equal("failed", pair.GetProperty("status").GetString());
+        Assert.Contains("shifts", pair.GetProperty("error").GetString(), StringComparison.Ordinal);
+        var history = await CliRun.Of("history", "hours-vs-pallets", "--config", ConfigPath, "--format", "json");
+        using var runs = JsonDocument.Parse(history.Out);
+        Assert.Equal("failed", runs.RootElement.GetProperty("runs")[0].GetProperty("status").GetString());
+    }
+
+    [Fact]
+    public async Task Check_BadConfiguration_ExitsTwoWithFileLineAndKey()
+    {
+        File.WriteAllText(ConfigPath, File.ReadAllText(ConfigPath).Replace("    x: crew_hours", "    x: crew_hours\n    smaple:\n      rows: 100", StringComparison.Ordinal));
+
+        var run = await CliRun.Of("check", "--config", ConfigPath);
+
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("driftwatch.yaml:", run.Error, StringComparison.Ordinal);
+        Assert.Contains("smaple", run.Error, StringComparison.Ordinal);
+        Assert.Contains("sample", run.Error, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public async Task Check_UnknownPairName_ExitsTwoWithAHint()
+    {
+        var run = await CliRun.Of("check", "--config", ConfigPath, "--pair", "hours-vs-palets");
+
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("did you mean 'hours-vs-pallets'", run.Error, StringComparison.Ordinal);
+    }
+
+    private SqliteConnection Open()
+    {
+        var connection = new SqliteConnection($"Data Source={Path.Combine(_folder, "floor.db")};Pooling=False");
+        connection.Open();
+        return connection;
+    }
+
+    private static void Execute(SqliteConnection connection, string sql)
+    {
+        using var command = connection.CreateCommand();
+        command.CommandText = sql;
+        command.ExecuteNonQuery();
+    }
+
+    public void Dispose()
+    {
+        SqliteConnection.ClearAllPools();
+        Directory.Delete(_folder, recursive: true);
+    }
+}
