@@ -22,20 +22,6 @@ internal static class Correlation
         return double.IsFinite(r) ? Math.Clamp(r, -1.0, 1.0) : null;
     }
 
-    /// <summary>Pearson r of two centred columns (Σ products over the square roots of Σ squares).</summary>
-    public static double? Pearson(double[] u, double[] v)
-    {
-        double sxx = 0, syy = 0, sxy = 0;
-        for (int i = 0; i < u.Length; i++)
-        {
-            sxx += u[i] * u[i];
-            syy += v[i] * v[i];
-            sxy += u[i] * v[i];
-        }
-
-        return Pearson(sxx, syy, sxy);
-    }
-
     /// <summary>Two-sided p of H0: ρ = 0 by t = r √((n − 2)/(1 − r²)) on n − 2 df (common practice).</summary>
     public static double? PValue(double r, int n)
     {

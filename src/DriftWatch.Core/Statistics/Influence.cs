@@ -14,7 +14,6 @@ internal sealed record Influence(
     double MaxLeverage,
     int UnitLeverageRows,
     int TopInfluenceRow,
-    bool TopInfluenceIsOutlier,
     double? MaxAbsStudentized)
 {
     /// <summary>Bonferroni p of the largest |t| on n − p − 1 df (Cook and Weisberg 1982); 0 for an infinite t.</summary>
@@ -56,7 +55,6 @@ internal sealed record Influence(
         int outliers = 0, cooksOver = 0, unitLeverage = 0;
         double maxD = 0, maxH = 0, maxT2 = 0;
         int topRow = -1, unitRow = -1, maxHRow = 0;
-        bool topIsOutlier = false;
         for (int i = 0; i < n; i++)
         {
             double h = invN + (u[i] * u[i] * invSxx);
@@ -99,7 +97,6 @@ internal sealed record Influence(
             {
                 maxD = d;
                 topRow = i;
-                topIsOutlier = outlier;
             }
         }
 
@@ -107,7 +104,6 @@ internal sealed record Influence(
         {
             // A unit-leverage row outweighs any finite D; an exact fit has no D, so the row of most leverage stands in.
             topRow = unitRow >= 0 ? unitRow : maxHRow;
-            topIsOutlier = false;
         }
 
         bool anyCooks = !exactFit && unitLeverage < n;
@@ -118,7 +114,6 @@ internal sealed record Influence(
             MaxLeverage: Math.Min(maxH, 1),
             UnitLeverageRows: unitLeverage,
             TopInfluenceRow: topRow,
-            TopInfluenceIsOutlier: topIsOutlier,
             MaxAbsStudentized: hasExternal && !exactFit ? Math.Sqrt(maxT2) : null);
     }
 }

@@ -63,6 +63,7 @@ internal static class CliApp
     internal static RootCommand BuildRoot(CliConsole console)
     {
         var root = new RootCommand(RootDescription);
+        root.Subcommands.Add(DemoCommand.Create(console));
         root.Subcommands.Add(ProfileCommand.Create(console));
         root.Subcommands.Add(RunCommand.Create(console));
         root.Subcommands.Add(CheckCommand.Create(console));
@@ -70,6 +71,7 @@ internal static class CliApp
         root.Subcommands.Add(HistoryCommand.Create(console));
         root.Subcommands.Add(BaselineCommand.Create(console));
         root.Subcommands.Add(AlertsCommand.Create(console));
+        root.Subcommands.Add(ReportCommand.Create(console));
         return root;
     }
 

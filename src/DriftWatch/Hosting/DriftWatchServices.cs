@@ -34,7 +34,6 @@ internal static class DriftWatchServices
         services.AddSingleton<PairChecker>();
         services.AddSingleton<MonitorCycle>();
         services.AddSingleton<CheckPass>();
-        services.AddSingleton<CheckMetrics>();
         services.AddSingleton<RunFeed>();
 
         // Hosted services start in registration order: the schema is migrated before anything reads the store.

@@ -1,4 +1,5 @@
 using DriftWatch.Core.Configuration;
+using DriftWatch.Dashboard;
 using DriftWatch.Scheduling;
 using Microsoft.AspNetCore.Builder;
 using Microsoft.AspNetCore.Hosting;
@@ -43,9 +44,24 @@ internal static class WorkerHost
             q.WaitForJobsToComplete = true;
         });
 
-        var urls = options.Urls ?? $"http://{config.Dashboard.Bind}:{config.Dashboard.Port}";
-        builder.WebHost.UseUrls(config.Dashboard.Enabled ? urls : "http://127.0.0.1:0");
+        builder.Services.AddSingleton<IWorkerHealth, SchedulerHealth>();
+        if (config.Dashboard.Enabled)
+        {
+            DashboardServices.Add(builder.Services, config.Dashboard);
+            builder.WebHost.UseUrls(options.Urls ?? DashboardServer.ListenUrl(config.Dashboard));
+        }
+        else
+        {
+            // No dashboard: nothing listens beyond an ephemeral loopback port the host insists on.
+            builder.WebHost.UseUrls("http://127.0.0.1:0");
+        }
+
         var app = builder.Build();
+        if (config.Dashboard.Enabled)
+        {
+            DashboardEndpoints.Map(app);
+        }
+
         return app;
     }
 }

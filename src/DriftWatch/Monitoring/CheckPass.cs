@@ -8,16 +8,11 @@ namespace DriftWatch.Monitoring;
 /// evaluation, then delivery of what is due. <c>check</c> and the demo use it; the worker runs the same steps
 /// on schedules (<see cref="Scheduling.PairCheckJob"/>, <see cref="Scheduling.AlertCycleJob"/>).
 /// </summary>
-internal sealed class CheckPass(MonitorCycle cycle, AlertEvaluation alerts, OutboxDispatcher outbox, CheckMetrics metrics)
+internal sealed class CheckPass(MonitorCycle cycle, AlertEvaluation alerts, OutboxDispatcher outbox)
 {
     public async Task<CheckPassResult> RunAsync(IReadOnlyList<PairConfig> pairs, IProgress<PairCheckResult>? progress, CancellationToken cancellationToken)
     {
         var results = await cycle.RunAsync(pairs, progress, cancellationToken);
-        foreach (var result in results)
-        {
-            metrics.Record(result);
-        }
-
         var cycles = await alerts.EvaluatePendingAsync(cancellationToken);
         var delivery = await outbox.DispatchDueAsync(cancellationToken);
         return new CheckPassResult(results, cycles, delivery);

@@ -15,17 +15,17 @@ internal static class CorrelationHistoryChart
 
     public static string RenderSvg(IReadOnlyList<CorrelationHistoryPoint> points, CorrelationBaselineBand? baseline, string? title = null, int width = DefaultWidth, int height = DefaultHeight)
     {
-        using var plot = Build(points, baseline, title);
+        using var plot = Build(points, baseline, title, dashed: false);
         return plot.GetSvgXml(width, height);
     }
 
     public static byte[] RenderPng(IReadOnlyList<CorrelationHistoryPoint> points, CorrelationBaselineBand? baseline, string? title = null, int width = DefaultWidth, int height = DefaultHeight)
     {
-        using var plot = Build(points, baseline, title);
+        using var plot = Build(points, baseline, title, dashed: true);
         return plot.GetImageBytes(width, height, ImageFormat.Png);
     }
 
-    private static Plot Build(IReadOnlyList<CorrelationHistoryPoint> points, CorrelationBaselineBand? baseline, string? title)
+    private static Plot Build(IReadOnlyList<CorrelationHistoryPoint> points, CorrelationBaselineBand? baseline, string? title, bool dashed)
     {
         ArgumentNullException.ThrowIfNull(points);
         var plot = new Plot();
@@ -36,7 +36,7 @@ internal static class CorrelationHistoryChart
         {
             var band = plot.Add.VerticalSpan(baseline.Low, baseline.High, PlotPalette.Band);
             band.LegendText = string.Create(CultureInfo.InvariantCulture, $"baseline 95% CI [{baseline.Low:0.000}, {baseline.High:0.000}]");
-            var line = plot.Add.HorizontalLine(baseline.R, 1.5f, PlotPalette.BaselineLine, LinePattern.Dashed);
+            var line = plot.Add.HorizontalLine(baseline.R, 1.5f, PlotPalette.BaselineLine, dashed ? LinePattern.Dashed : LinePattern.Solid);
             line.LegendText = string.Create(CultureInfo.InvariantCulture, $"baseline r = {baseline.R:0.000}");
         }
 

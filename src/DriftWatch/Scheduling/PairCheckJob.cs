@@ -9,7 +9,7 @@ namespace DriftWatch.Scheduling;
 /// and each pair has its own job, so a slow run of a pair delays that pair's next run instead of overlapping it.
 /// </summary>
 [DisallowConcurrentExecution]
-internal sealed class PairCheckJob(DriftWatchConfig config, PairChecker checker, CheckMetrics metrics) : IJob
+internal sealed class PairCheckJob(DriftWatchConfig config, PairChecker checker) : IJob
 {
     public const string PairKey = "pair";
 
@@ -23,7 +23,6 @@ internal sealed class PairCheckJob(DriftWatchConfig config, PairChecker checker,
             return;
         }
 
-        var result = await checker.CheckAsync(pair, cancellationToken);
-        metrics.Record(result);
+        await checker.CheckAsync(pair, cancellationToken);
     }
 }

@@ -133,7 +133,7 @@ public sealed class PropertyTests
     {
         { 1, 120 }, { 2, 120 }, { 3, 120 }, { 4, 120 },
 
-        // More rows than one QR block (2048), so the blockwise factorisation is exercised.
+        // Larger samples: the same agreement must hold when rounding has more rows to accumulate over.
         { 5, 2049 }, { 6, 5000 }, { 7, 9000 },
     };
 

@@ -1,0 +1,94 @@
+using DriftWatch.Alerts;
+using DriftWatch.Core.Alerting;
+using DriftWatch.Core.History;
+using DriftWatch.Dashboard.Data;
+using DriftWatch.Dashboard.Pages;
+using DriftWatch.Output;
+
+namespace DriftWatch.Dashboard.Api;
+
+/// <summary>From the read model to the API records. Every double goes through the contract's finite-or-null rule.</summary>
+internal static class ApiMapping
+{
+    public static PairJson ToJson(PairSummary pair)
+    {
+        ArgumentNullException.ThrowIfNull(pair);
+        return new PairJson(
+            pair.Name,
+            JsonContract.Name(pair.Status),
+            pair.Source,
+            pair.Config?.X,
+            pair.Config?.Y,
+            pair.Tags,
+            pair.Config is not null,
+            Finite(pair.DeltaR),
+            Finite(pair.SlopeRatio),
+            pair.OpenAlerts.Count,
+            pair.WorstOpenSeverity,
+            pair.Latest is null ? null : ToJson(pair.Latest),
+            pair.Baseline is null ? null : ToJson(pair.Baseline));
+    }
+
+    public static RunJson ToJson(RunRecord run)
+    {
+        ArgumentNullException.ThrowIfNull(run);
+        return new RunJson(
+            run.Id,
+            run.StartedAt,
+            run.FinishedAt,
+            Math.Max(0, (run.FinishedAt - run.StartedAt).TotalSeconds),
+            JsonContract.Name(run.Status),
+            run.Error,
+            run.SampleMethod,
+            run.Profile is null ? null : JsonContract.ToJson(run.Profile),
+            [.. run.Findings.Select(JsonContract.ToJson)]);
+    }
+
+    public static BaselineJson ToJson(StoredBaseline baseline)
+    {
+        ArgumentNullException.ThrowIfNull(baseline);
+        return new BaselineJson(
+            baseline.PolicyText,
+            baseline.CreatedAt,
+            baseline.CoversFrom,
+            baseline.CoversTo,
+            baseline.RunCount,
+            baseline.Accepted,
+            Finite(baseline.MeanRunUsed),
+            baseline.Points.UsedCount,
+            JsonContract.ToJson(baseline.Profile));
+    }
+
+    public static AlertJson ToJson(AlertState alert)
+    {
+        ArgumentNullException.ThrowIfNull(alert);
+        return new AlertJson(
+            alert.Id, alert.Pair, alert.Kind, alert.Severity, alert.Status, alert.ConsecutiveRuns, alert.FirstSeen, alert.LastSeen,
+            alert.FiredAt, alert.LastNotifiedAt, alert.ResolvedAt, alert.AckedAt, alert.Message, alert.LastRunId);
+    }
+
+    public static DeliveryJson ToJson(OutboxEntry entry)
+    {
+        ArgumentNullException.ThrowIfNull(entry);
+        return new DeliveryJson(
+            entry.Id,
+            entry.Route,
+            JsonContract.Name(entry.Channel),
+            entry.Subject,
+            entry.Recipients,
+            entry.CreatedAt,
+            AlertsPage.DeliveryState(entry),
+            entry.Attempts,
+            entry.SentAt,
+            entry.IsSent ? null : entry.NextAttemptAt,
+            entry.LastError);
+    }
+
+    public static AlertsResponse ToJson(AlertsOverview overview, DateTimeOffset now)
+    {
+        ArgumentNullException.ThrowIfNull(overview);
+        return new AlertsResponse(now, overview.ResolvedSince, [.. overview.Open.Select(ToJson)], [.. overview.Resolved.Select(ToJson)], [.. overview.Deliveries.Select(ToJson)]);
+    }
+
+    private static double? Finite(double? value) => value is { } v && double.IsFinite(v) ? v : null;
+}

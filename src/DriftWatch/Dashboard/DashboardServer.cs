@@ -1,0 +1,105 @@
+using System.Globalization;
+using System.Net;
+using DriftWatch.Core.Configuration;
+using DriftWatch.Store;
+using Microsoft.AspNetCore.Builder;
+using Microsoft.AspNetCore.Hosting;
+using Microsoft.AspNetCore.Hosting.Server;
+using Microsoft.AspNetCore.Hosting.Server.Features;
+using Microsoft.Extensions.DependencyInjection;
+using Microsoft.Extensions.Logging;
+
+namespace DriftWatch.Dashboard;
+
+/// <summary>What a standalone dashboard server reads and where it listens.</summary>
+/// <param name="Url">Overrides the address from <see cref="DriftWatchConfig.Dashboard"/>; tests pass "http://127.0.0.1:0".</param>
+internal sealed record DashboardServerOptions(
+    DriftWatchConfig Config,
+    IStoreDatabase Database,
+    IHistoryStore History,
+    IAlertStore Alerts)
+{
+    public TimeProvider Time { get; init; } = TimeProvider.System;
+
+    public IWorkerHealth? WorkerHealth { get; init; }
+
+    public string? Url { get; init; }
+
+    /// <summary>Replaces the default console logging (tests collect log lines).</summary>
+    public Action<ILoggingBuilder>? Logging { get; init; }
+}
+
+/// <summary>
+/// A dashboard on its own Kestrel server (tests, <c>demo --serve</c>). The worker's host maps the same
+/// endpoints with <see cref="DashboardServices.Add"/> and <see cref="DashboardEndpoints.Map"/> instead.
+/// </summary>
+internal sealed class DashboardServer : IAsyncDisposable
+{
+    private readonly WebApplication _app;
+
+    private DashboardServer(WebApplication app, Uri address)
+    {
+        _app = app;
+        Address = address;
+    }
+
+    /// <summary>The bound address, with the real port when port 0 was asked for.</summary>
+    public Uri Address { get; }
+
+    public IServiceProvider Services => _app.Services;
+
+    /// <summary>The URL Kestrel should listen on for <paramref name="config"/>: http://BIND:PORT, IPv6 in brackets.</summary>
+    public static string ListenUrl(DashboardConfig config)
+    {
+        ArgumentNullException.ThrowIfNull(config);
+        var host = IPAddress.TryParse(config.Bind, out var address) && address.AddressFamily == System.Net.Sockets.AddressFamily.InterNetworkV6
+            ? "[" + config.Bind + "]"
+            : config.Bind;
+        return "http://" + host + ":" + config.Port.ToString(CultureInfo.InvariantCulture);
+    }
+
+    public static async Task<DashboardServer> StartAsync(DashboardServerOptions options, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(options);
+        var builder = WebApplication.CreateSlimBuilder();
+        builder.WebHost.UseUrls(options.Url ?? ListenUrl(options.Config.Dashboard));
+        if (options.Logging is { } logging)
+        {
+            builder.Logging.ClearProviders();
+            logging(builder.Logging);
+        }
+
+        builder.Services.AddSingleton(options.Config);
+        builder.Services.AddSingleton(options.Database);
+        builder.Services.AddSingleton(options.History);
+        builder.Services.AddSingleton(options.Alerts);
+        builder.Services.AddSingleton(options.Time);
+        if (options.WorkerHealth is { } health)
+        {
+            builder.Services.AddSingleton(health);
+        }
+
+        DashboardServices.Add(builder.Services, options.Config.Dashboard);
+        var app = builder.Build();
+        DashboardEndpoints.Map(app);
+        try
+        {
+            await app.StartAsync(cancellationToken);
+            var bound = app.Services.GetRequiredService<IServer>().Features.Get<IServerAddressesFeature>()!.Addresses.First();
+            return new DashboardServer(app, new Uri(bound));
+        }
+        catch
+        {
+            await app.DisposeAsync();
+            throw;
+        }
+    }
+
+    public Task StopAsync(CancellationToken cancellationToken) => _app.StopAsync(cancellationToken);
+
+    public async ValueTask DisposeAsync()
+    {
+        await _app.StopAsync(CancellationToken.None);
+        await _app.DisposeAsync();
+    }
+}

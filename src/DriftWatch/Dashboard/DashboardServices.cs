@@ -1,0 +1,41 @@
+using DriftWatch.Core.Configuration;
+using DriftWatch.Dashboard.Access;
+using DriftWatch.Dashboard.Data;
+using DriftWatch.Dashboard.Health;
+using DriftWatch.Dashboard.Metrics;
+using DriftWatch.Store;
+using Microsoft.Extensions.DependencyInjection;
+using Microsoft.Extensions.DependencyInjection.Extensions;
+
+namespace DriftWatch.Dashboard;
+
+/// <summary>
+/// Registers what <see cref="DashboardEndpoints.Map"/> needs. The host registers the rest: DriftWatchConfig,
+/// IStoreDatabase, IHistoryStore and IAlertStore (singletons), and optionally <see cref="IWorkerHealth"/>.
+/// Throws when the configuration binds beyond loopback without an access token.
+/// </summary>
+internal static class DashboardServices
+{
+    public static IServiceCollection Add(IServiceCollection services, DashboardConfig config)
+    {
+        ArgumentNullException.ThrowIfNull(services);
+        ArgumentNullException.ThrowIfNull(config);
+        services.AddSingleton(new DashboardAccess(config));
+        services.TryAddSingleton(TimeProvider.System);
+        services.AddSingleton(sp => new DashboardReader(
+            sp.GetRequiredService<DriftWatchConfig>(),
+            sp.GetRequiredService<IHistoryStore>(),
+            sp.GetRequiredService<IAlertStore>(),
+            sp.GetRequiredService<TimeProvider>()));
+        services.AddSingleton(sp => new DashboardMetrics(
+            sp.GetRequiredService<IStoreDatabase>(),
+            sp.GetRequiredService<IAlertStore>(),
+            sp.GetRequiredService<DriftWatchConfig>(),
+            sp.GetRequiredService<TimeProvider>()));
+        services.AddSingleton(sp => new HealthCheck(
+            sp.GetRequiredService<IHistoryStore>(),
+            sp.GetRequiredService<TimeProvider>(),
+            sp.GetService<IWorkerHealth>()));
+        return services;
+    }
+}

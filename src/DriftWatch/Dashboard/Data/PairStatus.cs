@@ -1,0 +1,26 @@
+namespace DriftWatch.Dashboard.Data;
+
+/// <summary>
+/// Where a pair stands, worst first: the overview sorts by this order. Serialised in snake_case
+/// ("no_baseline").
+/// </summary>
+internal enum PairStatus
+{
+    /// <summary>An alert of warning or worse is firing: people were (or would have been) told.</summary>
+    Firing,
+
+    /// <summary>The latest check failed: the pair is not being watched right now.</summary>
+    Failing,
+
+    /// <summary>A warning or worse was seen but has not persisted long enough to fire.</summary>
+    Pending,
+
+    /// <summary>Checks run, but there is nothing to compare with yet (or the baseline was reset).</summary>
+    NoBaseline,
+
+    /// <summary>Configured, never checked.</summary>
+    NoRuns,
+
+    /// <summary>Latest check succeeded, a baseline exists and no alert of warning or worse is open.</summary>
+    Healthy,
+}

@@ -1,0 +1,67 @@
+using System.Data.Common;
+using DriftWatch.Store;
+
+namespace DriftWatch.Dashboard.Health;
+
+/// <summary>The body of <c>/healthz</c>; snake_case in JSON.</summary>
+internal sealed record HealthReport(string Status, DateTimeOffset CheckedAt, StoreHealth Store, SchedulerHealth Scheduler)
+{
+    [System.Text.Json.Serialization.JsonIgnore]
+    public bool Healthy => Status == "ok";
+}
+
+internal sealed record StoreHealth(bool Reachable, string? Error);
+
+/// <param name="Checked">False when no scheduler runs in this process (nothing to ask).</param>
+internal sealed record SchedulerHealth(bool Checked, bool? Running);
+
+/// <summary>Healthy when the store answers within <see cref="StoreTimeout"/> and the scheduler (if any) runs.</summary>
+internal sealed class HealthCheck(IHistoryStore history, TimeProvider time, IWorkerHealth? worker)
+{
+    public static readonly TimeSpan StoreTimeout = TimeSpan.FromSeconds(5);
+
+    // A pair name no configuration can declare (names start with a letter or digit): the count is 0 and the
+    // query runs on an index, so the probe is cheap yet goes through the real connection, schema and table.
+    private const string ProbePair = "~healthz-probe";
+
+    public async Task<HealthReport> CheckAsync(CancellationToken cancellationToken)
+    {
+        var store = await CheckStoreAsync(cancellationToken);
+        bool? running = null;
+        if (worker is not null)
+        {
+            try
+            {
+                running = worker.IsSchedulerRunning;
+            }
+            catch (InvalidOperationException)
+            {
+                // A scheduler being torn down may throw from its state query; that is "not running".
+                running = false;
+            }
+        }
+
+        var healthy = store.Reachable && running != false;
+        return new HealthReport(healthy ? "ok" : "unhealthy", time.GetUtcNow(), store, new SchedulerHealth(worker is not null, running));
+    }
+
+    private async Task<StoreHealth> CheckStoreAsync(CancellationToken cancellationToken)
+    {
+        using var timeout = CancellationTokenSource.CreateLinkedTokenSource(cancellationToken);
+        timeout.CancelAfter(StoreTimeout);
+        try
+        {
+            await history.CountRunsAsync(ProbePair, timeout.Token);
+            return new StoreHealth(true, null);
+        }
+        catch (OperationCanceledException) when (!cancellationToken.IsCancellationRequested)
+        {
+            return new StoreHealth(false, $"the store did not answer within {StoreTimeout.TotalSeconds:0} s");
+        }
+        catch (Exception ex) when (ex is DbException or IOException or InvalidOperationException or TimeoutException or System.Net.Sockets.SocketException)
+        {
+            // The message names what failed (connection refused, no such table); connection strings are not in it.
+            return new StoreHealth(false, ex.GetType().Name + ": " + ex.Message);
+        }
+    }
+}

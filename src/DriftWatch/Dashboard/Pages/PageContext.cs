@@ -1,0 +1,7 @@
+namespace DriftWatch.Dashboard.Pages;
+
+/// <summary>
+/// How a page is rendered: its links, whether CSS and script are linked (served) or inlined (static export),
+/// the time the page describes, and whether a sign-out button applies.
+/// </summary>
+internal sealed record PageContext(PageLinks Links, bool InlineAssets, DateTimeOffset Now, bool ShowSignOut = false);

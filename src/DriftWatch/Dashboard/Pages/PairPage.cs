@@ -1,0 +1,194 @@
+using System.Globalization;
+using DriftWatch.Core.Alerting;
+using DriftWatch.Core.Findings;
+using DriftWatch.Core.History;
+using DriftWatch.Dashboard.Data;
+
+namespace DriftWatch.Dashboard.Pages;
+
+/// <summary>
+/// One pair: what its latest check found, how the latest sample looks over the baseline, how r moved over
+/// time, the baseline and the configuration it is checked with, and the run history.
+/// </summary>
+internal static class PairPage
+{
+    public static string Render(PageContext context, PairDetail detail)
+    {
+        ArgumentNullException.ThrowIfNull(context);
+        ArgumentNullException.ThrowIfNull(detail);
+        var summary = detail.Summary;
+        return PageLayout.Render(context, summary.Name, null, html =>
+        {
+            Heading(html, context, summary);
+            Findings(html, summary);
+            OpenAlerts(html, context, detail);
+            Plots(html, detail);
+            html.Open("div", ("class", "facts"));
+            BaselineFacts.Render(html, summary);
+            ConfigFacts.Render(html, summary);
+            html.Close("div");
+            HistoryTable.Render(html, context, detail);
+        });
+    }
+
+    private static void Heading(Html html, PageContext context, PairSummary summary)
+    {
+        html.Open("nav", ("class", "crumbs"), ("aria-label", "Breadcrumb"));
+        html.Link(context.Links.Overview, "Pairs");
+        html.Element("span", " / ", ("aria-hidden", "true"));
+        html.Element("span", summary.Name, ("aria-current", "page"));
+        html.Close("nav");
+
+        html.Open("div", ("class", "page-head pair-head"));
+        html.Open("h1");
+        html.Element("span", summary.Name, ("class", "pair-title"));
+        html.Text(" ");
+        Badges.Status(html, summary.Status);
+        html.Close("h1");
+        html.Open("p", ("class", "lede"));
+        if (summary.Config is { } config)
+        {
+            html.Element("strong", config.Y);
+            html.Text(" against ");
+            html.Element("strong", config.X);
+            html.Text(" · source ");
+            html.Element("strong", config.Source);
+        }
+        else
+        {
+            html.Text("This pair is not in the configuration any more; its history is still in the store.");
+        }
+
+        if (summary.Latest is { } latest)
+        {
+            html.Text(" · last checked ");
+            html.Element("time", Display.Relative(latest.StartedAt, context.Now), ("datetime", Display.Iso(latest.StartedAt)), ("title", Display.Time(latest.StartedAt)));
+            html.Text(" (" + Display.Time(latest.StartedAt) + ")");
+        }
+        else
+        {
+            html.Text(" · not checked yet");
+        }
+
+        html.Close("p");
+        html.Close("div");
+
+        if (summary.Latest is { Status: RunStatus.Failed } failed)
+        {
+            html.Open("div", ("class", "callout callout-failing"), ("role", "status"));
+            html.Element("strong", "The latest check failed: ");
+            html.Text(failed.Error ?? "no error message was recorded");
+            html.Close("div");
+        }
+    }
+
+    private static void Findings(Html html, PairSummary summary)
+    {
+        var latest = summary.Latest;
+        if (latest is null || latest.Status != RunStatus.Succeeded)
+        {
+            return;
+        }
+
+        html.Open("section", ("class", "card findings"), ("aria-labelledby", "findings-title"));
+        html.Element("h2", "What the latest check found", ("id", "findings-title"));
+        if (latest.Findings.Count == 0)
+        {
+            html.Element("p", "No findings: the relationship looks as it did in the baseline.", ("class", "muted"));
+        }
+        else
+        {
+            html.Open("ul", ("class", "finding-list"));
+            foreach (var finding in latest.Findings.OrderByDescending(f => f.Severity))
+            {
+                html.Open("li", ("class", "finding sev-row-" + Output.JsonContract.Name(finding.Severity)));
+                Badges.Severity(html, finding.Severity);
+                html.Element("span", Badges.Kind(finding.Kind), ("class", "finding-kind"));
+                html.Element("span", finding.Message, ("class", "finding-message"));
+                var figures = FindingFigures(finding);
+                if (figures is not null)
+                {
+                    html.Element("span", figures, ("class", "finding-figures"));
+                }
+
+                html.Close("li");
+            }
+
+            html.Close("ul");
+        }
+
+        html.Close("section");
+    }
+
+    private static string? FindingFigures(Finding finding)
+    {
+        var parts = new List<string>();
+        if (finding.Effect is { } effect)
+        {
+            parts.Add("effect " + Display.Number(effect));
+        }
+
+        if (finding.PValue is { } p)
+        {
+            parts.Add("p " + (p < 1e-4 ? "< 0.0001" : "= " + Display.Number(p)));
+        }
+
+        return parts.Count == 0 ? null : string.Join(" · ", parts);
+    }
+
+    private static void OpenAlerts(Html html, PageContext context, PairDetail detail)
+    {
+        var alerts = detail.RecentAlerts;
+        if (alerts.Count == 0)
+        {
+            return;
+        }
+
+        html.Open("section", ("class", "card"), ("aria-labelledby", "pair-alerts-title"));
+        html.Open("h2", ("id", "pair-alerts-title"));
+        html.Text("Alerts of this pair ");
+        html.Link(context.Links.Alerts, "all alerts", ("class", "aside-link"));
+        html.Close("h2");
+        AlertsTable.Render(html, context, alerts, showPair: false, id: "pair-alerts");
+        html.Close("section");
+    }
+
+    private static void Plots(Html html, PairDetail detail)
+    {
+        html.Open("section", ("class", "plots"), ("aria-label", "Plots"));
+        html.Open("figure", ("class", "card plot-card"), ("id", "scatter"));
+        html.Open("figcaption");
+        html.Element("h2", "Latest sample over the baseline");
+        html.Element("p", ScatterCaption(detail), ("class", "muted"));
+        html.Close("figcaption");
+        html.Raw(PairPlots.Scatter(detail));
+        html.Close("figure");
+
+        html.Open("figure", ("class", "card plot-card"), ("id", "trend"));
+        html.Open("figcaption");
+        html.Element("h2", "Pearson r over time");
+        html.Element("p", TrendCaption(detail), ("class", "muted"));
+        html.Close("figcaption");
+        html.Raw(PairPlots.Trend(detail));
+        html.Close("figure");
+        html.Close("section");
+    }
+
+    private static string ScatterCaption(PairDetail detail)
+    {
+        var current = detail.PlotRun is { } run
+            ? $"Coloured: the run of {Display.Time(run.StartedAt)}"
+            : "No recent run still has its sampled points";
+        var baseline = detail.Summary.Baseline is { } b
+            ? $"grey: the baseline's reservoir of {Display.Count(b.Points.UsedCount)} points from {Display.Count(b.RunCount)} runs"
+            : "no baseline yet";
+        return $"{current}; {baseline}. Solid and dashed lines: least-squares fits.";
+    }
+
+    private static string TrendCaption(PairDetail detail)
+    {
+        var shown = detail.Trend.Count(r => r.Status == RunStatus.Succeeded);
+        var band = detail.Summary.Baseline is null ? "No baseline yet, so no band." : "Shaded: the baseline's 95% confidence interval for r (Fisher z).";
+        return $"The latest {shown.ToString("N0", CultureInfo.InvariantCulture)} successful runs. {band} Markers: runs with findings, by worst severity.";
+    }
+}

@@ -1,0 +1,48 @@
+using DriftWatch.Core.Alerting;
+using DriftWatch.Core.Findings;
+using DriftWatch.Core.History;
+using DriftWatch.Dashboard.Data;
+
+namespace DriftWatch.Tests.Dashboard.Data;
+
+public sealed class PairStatusRulesTests
+{
+    private static readonly DateTimeOffset At = new(2026, 12, 1, 0, 0, 0, TimeSpan.Zero);
+
+    [Fact]
+    public void Derive_CoversEveryState()
+    {
+        var ok = Run(RunStatus.Succeeded);
+        var failed = Run(RunStatus.Failed);
+
+        Assert.Equal(PairStatus.NoRuns, PairStatusRules.Derive(null, [], hasBaseline: false));
+        Assert.Equal(PairStatus.NoBaseline, PairStatusRules.Derive(ok, [], hasBaseline: false));
+        Assert.Equal(PairStatus.Healthy, PairStatusRules.Derive(ok, [], hasBaseline: true));
+        Assert.Equal(PairStatus.Pending, PairStatusRules.Derive(ok, [Alert(Severity.Warning, AlertStatus.Pending)], hasBaseline: true));
+        Assert.Equal(PairStatus.Firing, PairStatusRules.Derive(ok, [Alert(Severity.Warning, AlertStatus.Pending), Alert(Severity.Critical, AlertStatus.Firing)], hasBaseline: true));
+        // A pair can fire on its own profile before it has a baseline.
+        Assert.Equal(PairStatus.Firing, PairStatusRules.Derive(ok, [Alert(Severity.Warning, AlertStatus.Firing)], hasBaseline: false));
+        // A failed latest check outranks what the older runs said.
+        Assert.Equal(PairStatus.Failing, PairStatusRules.Derive(failed, [Alert(Severity.Critical, AlertStatus.Firing)], hasBaseline: true));
+    }
+
+    [Fact]
+    public void Derive_InfoAlertsStayPendingForEver_AndDoNotMakeAPairPending()
+    {
+        Assert.Equal(PairStatus.Healthy, PairStatusRules.Derive(Run(RunStatus.Succeeded), [Alert(Severity.Info, AlertStatus.Pending)], hasBaseline: true));
+    }
+
+    [Fact]
+    public void Statuses_AreOrderedWorstFirst()
+    {
+        Assert.Equal(
+            [PairStatus.Firing, PairStatus.Failing, PairStatus.Pending, PairStatus.NoBaseline, PairStatus.NoRuns, PairStatus.Healthy],
+            Enum.GetValues<PairStatus>().Order());
+        Assert.Equal("no baseline", PairStatusRules.Label(PairStatus.NoBaseline));
+    }
+
+    private static RunRecord Run(RunStatus status) => new(1, "p", At, At, status, null, null, [], null, null, null);
+
+    private static AlertState Alert(Severity severity, AlertStatus status) =>
+        new(1, "p", FindingKind.Outliers, severity, status, 1, At, At, status == AlertStatus.Firing ? At : null, null, null, null, "m", 1);
+}
