@@ -58,6 +58,11 @@ internal static class CliApp
             console.WriteError(ex.Message);
             return ExitCodes.UsageError;
         }
+        catch (Store.StoreUnavailableException ex)
+        {
+            console.WriteError(ex.Message + " (check store.connection; nothing was checked)");
+            return ExitCodes.RunFailures;
+        }
     }
 
     internal static RootCommand BuildRoot(CliConsole console)

@@ -18,7 +18,7 @@ internal static class ReportCommand
     public static Command Create(CliConsole console)
     {
         ArgumentNullException.ThrowIfNull(console);
-        var configOption = new Option<string>("--config") { Description = "The DriftWatch configuration file (YAML); its store is read.", HelpName = "FILE", Required = true };
+        var configOption = ConfigOption.Create();
         var outOption = new Option<string>("--out") { Description = "Folder to write the pages into; created if missing, files in it overwritten.", HelpName = "DIR", Required = true };
         var pairOption = new Option<string?>("--pair") { Description = "Only this pair: its page, and the overview and alerts narrowed to it.", HelpName = "NAME" };
         var command = new Command(
@@ -31,24 +31,19 @@ internal static class ReportCommand
         };
 
         command.SetAction((parsed, cancellationToken) =>
-            RunAsync(console, parsed.GetValue(configOption)!, parsed.GetValue(outOption)!, parsed.GetValue(pairOption), cancellationToken));
+            RunAsync(console, parsed.GetValue(configOption), parsed.GetValue(outOption)!, parsed.GetValue(pairOption), cancellationToken));
         return command;
     }
 
-    private static async Task<int> RunAsync(CliConsole console, string configPath, string outDir, string? pair, CancellationToken cancellationToken)
+    private static async Task<int> RunAsync(CliConsole console, string? configPath, string outDir, string? pair, CancellationToken cancellationToken)
     {
-        var loaded = ConfigLoader.Load(configPath, Environment.GetEnvironmentVariable);
-        if (!loaded.Ok)
+        var config = ConfigOption.Load(configPath, console);
+        if (config is null)
         {
-            foreach (var error in loaded.Errors)
-            {
-                console.WriteError(error.ToString());
-            }
-
             return ExitCodes.UsageError;
         }
 
-        var config = loaded.Config!;
+        configPath = config.FilePath;
         if (MissingSqliteStore(config.Store) is { } missing)
         {
             throw new CliUsageException($"the store file {missing} does not exist (store.connection in {configPath}); nothing has been recorded yet");

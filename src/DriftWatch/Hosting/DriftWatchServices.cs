@@ -49,6 +49,14 @@ internal static class DriftWatchServices
     public static async Task MigrateStoreAsync(this IServiceProvider services, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(services);
-        await new MigrationRunner(services.GetRequiredService<IStoreDatabase>()).MigrateAsync(cancellationToken);
+        var database = services.GetRequiredService<IStoreDatabase>();
+        try
+        {
+            await new MigrationRunner(database, services.GetService<TimeProvider>()).MigrateAsync(cancellationToken);
+        }
+        catch (Exception ex) when (ex is System.Data.Common.DbException or System.Net.Sockets.SocketException or IOException or TimeoutException)
+        {
+            throw new StoreUnavailableException($"the {database.Dialect} store could not be opened: {ex.Message}", ex);
+        }
     }
 }

@@ -156,6 +156,22 @@ public sealed class CheckCommandTests : IDisposable
         Assert.Contains("did you mean 'hours-vs-pallets'", run.Error, StringComparison.Ordinal);
     }
 
+    [Fact]
+    public async Task Check_StoreUnreachable_ExitsThreeWithOneLineAndNoPassword()
+    {
+        // Port 1 on loopback: nothing listens there (common practice for "connection refused" tests).
+        File.WriteAllText(ConfigPath, File.ReadAllText(ConfigPath).Replace(
+            "store:\n  connection: store.db",
+            "store:\n  kind: postgres\n  connection: Host=127.0.0.1;Port=1;Username=dw;Password=hunter2-secret;Database=dw",
+            StringComparison.Ordinal));
+
+        var run = await CliRun.Of("check", "--config", ConfigPath);
+
+        Assert.Equal(3, run.ExitCode);
+        Assert.Contains("store could not be opened", run.Error, StringComparison.Ordinal);
+        Assert.DoesNotContain("hunter2-secret", run.Error + run.Out, StringComparison.Ordinal);
+    }
+
     private SqliteConnection Open()
     {
         var connection = new SqliteConnection($"Data Source={Path.Combine(_folder, "floor.db")};Pooling=False");
