@@ -6,5 +6,15 @@ namespace DriftWatch.Benchmarks;
 // figures go into docs/performance.md with the machine and date.
 internal static class BenchmarkProgram
 {
-    public static void Main(string[] args) => BenchmarkSwitcher.FromAssembly(typeof(BenchmarkProgram).Assembly).Run(args);
+    public static async Task<int> Main(string[] args)
+    {
+        // `-- cycle [--pairs 1000]`: one whole monitor cycle, timed by a Stopwatch (see Cycle/CycleCommand.cs).
+        if (args.Length > 0 && args[0] == Cycle.CycleCommand.Name)
+        {
+            return await Cycle.CycleCommand.RunAsync(args[1..]);
+        }
+
+        BenchmarkSwitcher.FromAssembly(typeof(BenchmarkProgram).Assembly).Run(args);
+        return 0;
+    }
 }
