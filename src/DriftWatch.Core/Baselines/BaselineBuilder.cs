@@ -1,6 +1,7 @@
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.History;
 using DriftWatch.Core.Profiling;
+using DriftWatch.Core.Statistics;
 
 namespace DriftWatch.Core.Baselines;
 
@@ -33,7 +34,8 @@ public static class BaselineBuilder
         DateTimeOffset now,
         Func<PairedSample, RelationshipProfile> profiler,
         bool accepted = false,
-        int capacity = DefaultCapacity)
+        int capacity = DefaultCapacity,
+        Thresholds? thresholds = null)
     {
         ArgumentException.ThrowIfNullOrEmpty(pair);
         ArgumentNullException.ThrowIfNull(policy);
@@ -74,6 +76,10 @@ public static class BaselineBuilder
             NNonfinite = Mean(nonFinite, runCount),
             NNonNumeric = Mean(nonNumeric, runCount),
         };
+        var figures = pooled
+            .Where(r => r.Profile is not null)
+            .Select(r => RunFigures.Of(r.Id, r.StartedAt, r.Profile!, r.SourceFigures, thresholds ?? Thresholds.Default))
+            .ToList();
         return new StoredBaseline(
             pair,
             policy.Kind,
@@ -85,7 +91,10 @@ public static class BaselineBuilder
             profile,
             sample,
             accepted,
-            used / (double)pooled.Count);
+            used / (double)pooled.Count)
+        {
+            Runs = figures,
+        };
     }
 
     private static int Mean(long total, double count) => (int)Math.Round(total / count, MidpointRounding.AwayFromZero);

@@ -2,6 +2,7 @@ using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Findings;
 using DriftWatch.Core.History;
 using DriftWatch.Core.Profiling;
+using DriftWatch.Core.Statistics;
 
 namespace DriftWatch.Core.Baselines;
 
@@ -28,12 +29,15 @@ public static class BaselinePolicySelector
     {
         ArgumentNullException.ThrowIfNull(policy);
         var policyChanged = existing is not null && existing.PolicyText != policy.ToString();
-        if (policyChanged)
+
+        // A baseline stored before runs' own figures were kept cannot give the runs' spread: pool it again.
+        var withoutRuns = existing is { Accepted: false, Runs.Count: 0 };
+        if (policyChanged || withoutRuns)
         {
             existing = null;
         }
 
-        var reasonNew = policyChanged ? "policy changed" : "no baseline yet";
+        var reasonNew = policyChanged ? "policy changed" : withoutRuns ? "baseline predates per-run figures" : "no baseline yet";
         return policy.Kind switch
         {
             BaselinePolicyKind.FirstRuns => existing is null
@@ -105,7 +109,8 @@ public static class BaselinePolicySelector
         IReadOnlyList<RunRecord> runs,
         StoredBaseline? existing,
         DateTimeOffset now,
-        Func<PairedSample, RelationshipProfile> profiler)
+        Func<PairedSample, RelationshipProfile> profiler,
+        Thresholds? thresholds = null)
     {
         ArgumentNullException.ThrowIfNull(plan);
         ArgumentNullException.ThrowIfNull(runs);
@@ -120,7 +125,7 @@ public static class BaselinePolicySelector
             return existing is not null && existing.PolicyText == policy.ToString() ? existing : null;
         }
 
-        return BaselineBuilder.Build(pair, policy, chosen, now, profiler, plan.Accepted) ?? existing;
+        return BaselineBuilder.Build(pair, policy, chosen, now, profiler, plan.Accepted, thresholds: thresholds) ?? existing;
     }
 
     /// <summary>The runs of <paramref name="runs"/> the plan pools, oldest first.</summary>
@@ -152,7 +157,8 @@ public static class BaselinePolicySelector
         BaselinePolicy policy,
         IReadOnlyList<RunRecord> recentRuns,
         DateTimeOffset now,
-        Func<PairedSample, RelationshipProfile> profiler)
+        Func<PairedSample, RelationshipProfile> profiler,
+        Thresholds? thresholds = null)
     {
         ArgumentNullException.ThrowIfNull(recentRuns);
         var latest = recentRuns
@@ -160,6 +166,6 @@ public static class BaselinePolicySelector
             .OrderByDescending(r => r.StartedAt)
             .ThenByDescending(r => r.Id)
             .FirstOrDefault();
-        return latest is null ? null : BaselineBuilder.Build(pair, policy, [latest], now, profiler, accepted: true);
+        return latest is null ? null : BaselineBuilder.Build(pair, policy, [latest], now, profiler, accepted: true, thresholds: thresholds);
     }
 }

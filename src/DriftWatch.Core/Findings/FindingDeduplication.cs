@@ -48,6 +48,18 @@ internal static class FindingDeduplication
             }
         }
 
+        // A unit change keeps r; what r did is explained by it. Rows outside the sample that drive the exact
+        // line explain the exact line's moves.
+        if (all.Any(f => f.Kind == FindingKind.SlopeShift && f.Severity == Severity.Critical))
+        {
+            all.RemoveAll(f => f.Kind == FindingKind.CorrelationShift);
+        }
+
+        if (all.Any(f => f.Kind == FindingKind.HiddenRowsDriveLine && f.Severity >= Severity.Warning))
+        {
+            all.RemoveAll(f => f.Kind is FindingKind.CorrelationShift or FindingKind.SlopeShift or FindingKind.OffsetShift);
+        }
+
         // When r without the new dominant row is back within MinCorrelationChange of the baseline's,
         // the row explains the shifts; the leverage finding names it and says what r would be.
         if (kinds.Contains(FindingKind.LeverageAppeared)

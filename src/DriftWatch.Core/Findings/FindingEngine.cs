@@ -1,4 +1,6 @@
+using DriftWatch.Core.Baselines;
 using DriftWatch.Core.Configuration;
+using DriftWatch.Core.History;
 using DriftWatch.Core.Profiling;
 using DriftWatch.Core.Statistics;
 
@@ -22,8 +24,9 @@ public static class FindingEngine
     }
 
     /// <summary>
-    /// Comparison findings of the current profile against the baseline; the samples are the point
-    /// sets the Kolmogorov–Smirnov tests use. Rules are independent here; see <see cref="Assess"/>.
+    /// Comparison findings of the current profile against a baseline given by its pooled profile alone (one run:
+    /// classic two-sample tests); the samples are the point sets the Kolmogorov–Smirnov tests use. Rules are
+    /// independent here; see <see cref="Assess(RelationshipProfile, PairedSample, SourceFigures?, StoredBaseline?, PairExpectation, Thresholds, string, string)"/>.
     /// </summary>
     public static IReadOnlyList<Finding> Compare(
         RelationshipProfile current,
@@ -41,13 +44,14 @@ public static class FindingEngine
         ArgumentNullException.ThrowIfNull(baselineSample);
         ArgumentNullException.ThrowIfNull(expect);
         ArgumentNullException.ThrowIfNull(t);
-        return ComparisonFindings.Of(current, currentSample, baseline, baselineSample, expect, t, ColumnNames.Of(xName, yName));
+        var now = RunFigures.Of(0, default, current, null, t);
+        return ComparisonFindings.Of(current, now, currentSample, BaselineView.Of(baseline, baselineSample, null, t), expect, t, ColumnNames.Of(xName, yName));
     }
 
     /// <summary>
-    /// What the monitor calls: the profile's own findings plus, with a baseline, the comparison,
-    /// without findings another one already explains, ordered by severity (worst first).
-    /// Without a baseline sample the marginal (Kolmogorov–Smirnov) tests are skipped.
+    /// <see cref="Assess(RelationshipProfile, PairedSample, SourceFigures?, StoredBaseline?, PairExpectation, Thresholds, string, string)"/>
+    /// for a baseline known only by its pooled profile and points (a profile of an extract, a test): the baseline
+    /// stands as one run, with no spread between runs.
     /// </summary>
     public static IReadOnlyList<Finding> Assess(
         RelationshipProfile current,
@@ -59,15 +63,57 @@ public static class FindingEngine
         string xName = "x",
         string yName = "y")
     {
+        ArgumentNullException.ThrowIfNull(t);
+        var view = baseline is null ? null : BaselineView.Of(baseline, baselineSample ?? PairedSample.Empty, null, t);
+        return Assess(current, currentSample, null, view, expect, t, xName, yName);
+    }
+
+    /// <summary>
+    /// What the monitor calls: the profile's own findings, the exact figures against the sample's, and with a
+    /// baseline the comparison with its runs' normal range; without findings another one already explains,
+    /// ordered by severity (worst first).
+    /// </summary>
+    /// <param name="exact">The source's exact whole-window figures for this run, when it computed them.</param>
+    public static IReadOnlyList<Finding> Assess(
+        RelationshipProfile current,
+        PairedSample currentSample,
+        SourceFigures? exact,
+        StoredBaseline? baseline,
+        PairExpectation expect,
+        Thresholds t,
+        string xName = "x",
+        string yName = "y")
+    {
+        ArgumentNullException.ThrowIfNull(t);
+        var view = baseline is null ? null : BaselineView.Of(baseline.Profile, baseline.Points, baseline.Runs, t);
+        return Assess(current, currentSample, exact, view, expect, t, xName, yName);
+    }
+
+    private static IReadOnlyList<Finding> Assess(
+        RelationshipProfile current,
+        PairedSample currentSample,
+        SourceFigures? exact,
+        BaselineView? baseline,
+        PairExpectation expect,
+        Thresholds t,
+        string xName,
+        string yName)
+    {
         ArgumentNullException.ThrowIfNull(current);
         ArgumentNullException.ThrowIfNull(currentSample);
         ArgumentNullException.ThrowIfNull(expect);
-        ArgumentNullException.ThrowIfNull(t);
         var names = ColumnNames.Of(xName, yName);
-        var own = ProfileFindings.Of(current, expect, t, names);
+        bool baselineExact = baseline is not null && baseline.Mostly(r => r.IsExactFunction);
+        var own = ProfileFindings.Of(current, expect, t, names, baselineExact);
+        if (current.Shape != Shape.Undefined
+            && HiddenRowsFinding.Of(current, exact, baseline is not null && baseline.Ever(r => r.LineDisagrees), t, names) is { } hidden)
+        {
+            own.Add(hidden);
+        }
+
         var comparison = baseline is null
             ? []
-            : ComparisonFindings.Of(current, currentSample, baseline, baselineSample ?? PairedSample.Empty, expect, t, names);
-        return FindingDeduplication.Merge(own, comparison, current, baseline, t);
+            : ComparisonFindings.Of(current, RunFigures.Of(0, default, current, exact, t), currentSample, baseline, expect, t, names);
+        return FindingDeduplication.Merge(own, comparison, current, baseline?.Pooled, t);
     }
 }

@@ -26,6 +26,9 @@ public enum FindingKind
     SampleShrank,
     MarginalShift,
 
+    // The exact whole-window line against the sample's: rows the sample missed drive the exact line.
+    HiddenRowsDriveLine,
+
     // Raised by the monitor, not by the statistics: the pair's check keeps failing.
     CheckFailing,
 }

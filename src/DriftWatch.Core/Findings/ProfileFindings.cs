@@ -4,10 +4,16 @@ using DriftWatch.Core.Statistics;
 
 namespace DriftWatch.Core.Findings;
 
-/// <summary>What is worth a look in one profile, with no baseline.</summary>
+/// <summary>
+/// What one profile says on its own. Outliers, curvature and a dominant row are properties of a pair, reported
+/// as info (the change kinds against the baseline are what alert); an exact function is the data smell the tool
+/// exists for, a warning until the baseline shows it was always so. Declared expectations (exactness, direction)
+/// are checked on every run.
+/// </summary>
 internal static class ProfileFindings
 {
-    public static List<Finding> Of(RelationshipProfile p, PairExpectation expect, Thresholds t, ColumnNames c)
+    /// <param name="baselineExact">The pair's baseline was already an exact function: a known state, reported as info.</param>
+    public static List<Finding> Of(RelationshipProfile p, PairExpectation expect, Thresholds t, ColumnNames c, bool baselineExact = false)
     {
         var findings = new List<Finding>();
         if (p.Shape == Shape.Undefined)
@@ -27,7 +33,7 @@ internal static class ProfileFindings
         }
         else if (!expect.Exact && exact)
         {
-            findings.Add(Perfect(p, c));
+            findings.Add(Perfect(p, c, baselineExact ? Severity.Info : Severity.Warning));
         }
 
         if (Direction(p, expect, t, c) is { } direction)
@@ -49,7 +55,7 @@ internal static class ProfileFindings
         {
             findings.Add(new Finding(
                 FindingKind.Outliers,
-                Severity.Warning,
+                Severity.Info,
                 p.OutlierTestP,
                 rate,
                 $"{Numbers.Count(p.OutlierCount ?? 0)} of {Numbers.Count(p.NUsed)} rows ({Numbers.Percent(rate)}) lie more than {Numbers.Sig(t.OutlierT)} studentized residuals off the line of {c.Y} on {c.X} (more than {Numbers.Percent(t.MaxOutlierRate)}): check them for unit, entry or join errors."));
@@ -62,7 +68,7 @@ internal static class ProfileFindings
                 : $"without it r is undefined (r = {Numbers.Sig(p.PearsonR)} rests on that row alone)";
             findings.Add(new Finding(
                 FindingKind.SinglePointLeverage,
-                Severity.Warning,
+                Severity.Info,
                 null,
                 p.MaxCooksDistance is { } d && p.MaxLeverage < 1 ? d : p.MaxLeverage,
                 $"A single row sets the slope of {c.Y} on {c.X} (leverage {Numbers.Sig(p.MaxLeverage)}); {without}: check that row before trusting the line."));
@@ -75,7 +81,7 @@ internal static class ProfileFindings
     public static bool IsLeverage(RelationshipProfile p, Thresholds t) =>
         p.Shape == Shape.Leverage || (!p.ExactAffine && ShapeRules.IsHighLeverage(p.MaxLeverage ?? 0, p.NUsed, t));
 
-    private static Finding Perfect(RelationshipProfile p, ColumnNames c)
+    private static Finding Perfect(RelationshipProfile p, ColumnNames c, Severity severity)
     {
         const string Advice = "a duplicated or derived column, not an independent measurement; if that is by design, declare the pair exact";
         string message = p.ExactIdentity
@@ -83,7 +89,7 @@ internal static class ProfileFindings
             : p.ExactAffine
                 ? $"{c.Y} is an exact affine function of {c.X} ({c.Equation(p.Equation)}) on every sampled row: {Advice}."
                 : $"{c.Y} is an exact monotone function of {c.X} (|ρ| = 1, not a straight line) on every sampled row: {Advice}.";
-        return new Finding(FindingKind.PerfectRelationship, Severity.Warning, null, p.ExactAffine ? p.PearsonR : p.SpearmanRho, message);
+        return new Finding(FindingKind.PerfectRelationship, severity, null, p.ExactAffine ? p.PearsonR : p.SpearmanRho, message);
     }
 
     private static Finding? Direction(RelationshipProfile p, PairExpectation expect, Thresholds t, ColumnNames c)

@@ -16,7 +16,8 @@ internal static class UnitFactors
         (3.6, "kWh and MJ, or m/s and km/h"),
     ];
 
-    /// <returns>The matching factor, written as the user would, or null.</returns>
+    /// <param name="tolerance">The largest relative distance |ratio/factor − 1| at which the ratio still "is" the factor.</param>
+    /// <returns>The factor (or inverse) nearest to the ratio on a log scale among those within the tolerance, written as the user would; or null.</returns>
     public static (string Factor, string Description)? Match(double ratio, double tolerance)
     {
         if (!(ratio > 0) || !double.IsFinite(ratio))
@@ -24,20 +25,22 @@ internal static class UnitFactors
             return null;
         }
 
+        (string Factor, string Description)? best = null;
+        double bestDistance = double.MaxValue;
         foreach (var (factor, description) in Known)
         {
-            if (Math.Abs((ratio / factor) - 1) <= tolerance)
+            foreach (var (value, text) in new[] { (factor, FactorText(factor)), (1 / factor, "1/" + FactorText(factor)) })
             {
-                return (FactorText(factor), description);
-            }
-
-            if (Math.Abs((ratio * factor) - 1) <= tolerance)
-            {
-                return ("1/" + FactorText(factor), description);
+                double distance = Math.Abs(Math.Log(ratio / value));
+                if (Math.Abs((ratio / value) - 1) <= tolerance && distance < bestDistance)
+                {
+                    best = (text, description);
+                    bestDistance = distance;
+                }
             }
         }
 
-        return null;
+        return best;
     }
 
     private static string FactorText(double factor) =>

@@ -14,4 +14,8 @@ public sealed record NewRun(
     IReadOnlyList<Finding> Findings,
     SourceFigures? SourceFigures,
     PairedSample? Points,
-    string? SampleMethod = null);
+    string? SampleMethod = null)
+{
+    /// <summary>The baseline the run was judged against; null without one (or for a failed run).</summary>
+    public BaselineSummary? JudgedAgainst { get; init; }
+}

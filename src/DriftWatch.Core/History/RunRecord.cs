@@ -17,5 +17,8 @@ public sealed record RunRecord(
     PairedSample? Points,
     string? SampleMethod)
 {
+    /// <summary>The baseline the run was judged against; null without one, or for runs stored before it was recorded.</summary>
+    public BaselineSummary? JudgedAgainst { get; init; }
+
     public Severity? WorstSeverity => Findings.Count == 0 ? null : Findings.Max(f => f.Severity);
 }

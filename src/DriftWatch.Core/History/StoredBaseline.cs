@@ -1,3 +1,4 @@
+using DriftWatch.Core.Baselines;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Profiling;
 
@@ -23,4 +24,11 @@ public sealed record StoredBaseline(
     RelationshipProfile Profile,
     PairedSample Points,
     bool Accepted = false,
-    double? MeanRunUsed = null);
+    double? MeanRunUsed = null)
+{
+    /// <summary>
+    /// The pooled runs' own figures, oldest first: what comparisons test a run against (their centre and the
+    /// spread between them). Empty for a baseline stored before runs were kept; it is then rebuilt.
+    /// </summary>
+    public IReadOnlyList<RunFigures> Runs { get; init; } = [];
+}

@@ -111,6 +111,7 @@ internal static class ProfileComputation
             Intercept = Finite(intercept),
             Slope = Finite(slope),
             SlopeSe = Finite(Math.ScaleB(sScaled / Math.Sqrt(line.Sxx), ky - kx)),
+            SlopeSeRobust = Finite(Math.ScaleB(RobustSlopeSe(u, line), ky - kx)),
             InterceptSe = Finite(Math.ScaleB(sScaled * Math.Sqrt((1.0 / n) + (cx.ScaledMean * cx.ScaledMean / line.Sxx)), ky)),
             RSquared = line.RSquared,
             ResidualSd = Finite(Math.ScaleB(sScaled, ky)),
@@ -132,6 +133,25 @@ internal static class ProfileComputation
 
         var (shape, reason) = ShapeRules.Classify(result, influence, t);
         return result with { Shape = shape, ShapeReason = reason };
+    }
+
+    /// <summary>
+    /// Heteroscedasticity-consistent standard error of the slope, White's (1980) sandwich with the
+    /// n/(n − 2) small-sample factor (HC1, MacKinnon and White 1985): √(n/(n − 2) · Σ uᵢ²eᵢ²) / Sxx.
+    /// Noise that grows with x or has heavy tails makes the classic SE too small; comparisons use this one.
+    /// </summary>
+    private static double RobustSlopeSe(double[] u, LineFit line)
+    {
+        int n = u.Length;
+        double[] e = line.Residuals;
+        double sum = 0;
+        for (int i = 0; i < n; i++)
+        {
+            double w = u[i] * e[i];
+            sum += w * w;
+        }
+
+        return Math.Sqrt(sum * n / (n - 2)) / line.Sxx;
     }
 
     private static double Spearman(Ranking rankX, Ranking rankY)

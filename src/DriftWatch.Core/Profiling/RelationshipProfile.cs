@@ -27,6 +27,9 @@ public sealed record RelationshipProfile
     public double? Intercept { get; init; }
     public double? Slope { get; init; }
     public double? SlopeSe { get; init; }
+
+    /// <summary>Heteroscedasticity-consistent (HC1) standard error of the slope: honest under noise that grows with x or has heavy tails.</summary>
+    public double? SlopeSeRobust { get; init; }
     public double? InterceptSe { get; init; }
     public double? RSquared { get; init; }
     public double? ResidualSd { get; init; }

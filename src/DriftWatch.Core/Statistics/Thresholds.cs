@@ -12,6 +12,7 @@ public sealed record Thresholds
     public const double DefaultMinCorrelationChange = 0.1;
     public const double DefaultMinSlopeRatioChange = 0.1;
     public const double DefaultUnitFactorTolerance = 0.02;
+    public const double DefaultUnitFactorMaxTolerance = 0.08;
     public const double DefaultCurvatureMinR2Gain = 0.02;
     public const double DefaultMinOutlierRateIncrease = 0.02;
     public const double DefaultMaxOutlierRate = 0.01;
@@ -39,8 +40,17 @@ public sealed record Thresholds
     /// <summary>Minimum |slope ratio − 1| for a slope shift.</summary>
     public double MinSlopeRatioChange { get; init; } = DefaultMinSlopeRatioChange;
 
-    /// <summary>Relative distance within which a slope ratio "is" a common unit factor.</summary>
+    /// <summary>
+    /// Relative distance within which a slope ratio "is" a common unit factor, at the least: a ratio measured less
+    /// precisely (the baseline runs' spread, a small sample) matches within its own prediction interval.
+    /// </summary>
     public double UnitFactorTolerance { get; init; } = DefaultUnitFactorTolerance;
+
+    /// <summary>
+    /// The widest relative distance at which a slope ratio is still named a unit factor, however imprecise the
+    /// ratio: a 30 % change of a formula must not be read as miles for kilometres.
+    /// </summary>
+    public double UnitFactorMaxTolerance { get; init; } = DefaultUnitFactorMaxTolerance;
 
     /// <summary>Minimum R² gain of the quadratic over the line before curvature is reported.</summary>
     public double CurvatureMinR2Gain { get; init; } = DefaultCurvatureMinR2Gain;

@@ -36,7 +36,7 @@ internal sealed class BaselineService(
         }
 
         var runs = await LoadRunsAsync(pair.Name, plan, cancellationToken);
-        var baseline = BaselinePolicySelector.Build(pair.Name, pair.Baseline, plan, runs, existing, now, s => profiler(s, pair.Thresholds));
+        var baseline = BaselinePolicySelector.Build(pair.Name, pair.Baseline, plan, runs, existing, now, s => profiler(s, pair.Thresholds), pair.Thresholds);
         if (baseline is not null && !ReferenceEquals(baseline, existing))
         {
             await store.SaveBaselineAsync(baseline, cancellationToken);
@@ -53,7 +53,7 @@ internal sealed class BaselineService(
     {
         ArgumentNullException.ThrowIfNull(pair);
         var recent = await store.GetRunsAsync(pair.Name, AcceptLookback, includePoints: true, cancellationToken);
-        var baseline = BaselinePolicySelector.Accept(pair.Name, pair.Baseline, recent, now, s => profiler(s, pair.Thresholds));
+        var baseline = BaselinePolicySelector.Accept(pair.Name, pair.Baseline, recent, now, s => profiler(s, pair.Thresholds), pair.Thresholds);
         if (baseline is null)
         {
             return null;

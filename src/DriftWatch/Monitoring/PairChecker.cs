@@ -39,7 +39,7 @@ internal sealed class PairChecker(
             sampled = await sources.Create(source).SampleAsync(pair, startedAt, cancellationToken);
             profile = Profiler.Profile(sampled.Sample, pair.Thresholds);
             baseline = await baselines.GetOrBuildAsync(pair, startedAt, cancellationToken);
-            findings = FindingEngine.Assess(profile, sampled.Sample, baseline?.Profile, baseline?.Points, pair.Expect, pair.Thresholds, pair.X, pair.Y);
+            findings = FindingEngine.Assess(profile, sampled.Sample, sampled.Figures, baseline, pair.Expect, pair.Thresholds, pair.X, pair.Y);
         }
         catch (OperationCanceledException) when (cancellationToken.IsCancellationRequested)
         {
@@ -70,7 +70,10 @@ internal sealed class PairChecker(
             status == RunStatus.Succeeded ? findings : [],
             sampled?.Figures,
             status == RunStatus.Succeeded ? sampled?.Sample : null,
-            sampled?.Method);
+            sampled?.Method)
+        {
+            JudgedAgainst = status == RunStatus.Succeeded && baseline is not null ? BaselineSummary.Of(baseline) : null,
+        };
         long runId = 0;
         try
         {

@@ -1,5 +1,6 @@
 using System.Data.Common;
 using Dapper;
+using DriftWatch.Core.Baselines;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Findings;
 using DriftWatch.Core.History;
@@ -16,7 +17,7 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
 {
     private const string RunColumns =
         "id AS Id, pair AS Pair, started_at_ms AS StartedAtMs, finished_at_ms AS FinishedAtMs, status AS Status, error AS Error, " +
-        "sample_method AS SampleMethod, profile_json AS ProfileJson, source_figures_json AS FiguresJson";
+        "sample_method AS SampleMethod, profile_json AS ProfileJson, source_figures_json AS FiguresJson, baseline_json AS BaselineJson";
 
     private const string FindingColumns =
         "run_id AS RunId, kind AS Kind, severity AS Severity, p_value AS PValue, effect AS Effect, message AS Message";
@@ -31,8 +32,8 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
         await using var transaction = await connection.BeginTransactionAsync(cancellationToken);
         var id = await connection.ExecuteScalarAsync<long>(new CommandDefinition(
             """
-            INSERT INTO runs (pair, started_at_ms, finished_at_ms, status, error, sample_method, profile_json, source_figures_json, points)
-            VALUES (@Pair, @StartedAtMs, @FinishedAtMs, @Status, @Error, @SampleMethod, @ProfileJson, @FiguresJson, @Points)
+            INSERT INTO runs (pair, started_at_ms, finished_at_ms, status, error, sample_method, profile_json, source_figures_json, points, baseline_json)
+            VALUES (@Pair, @StartedAtMs, @FinishedAtMs, @Status, @Error, @SampleMethod, @ProfileJson, @FiguresJson, @Points, @BaselineJson)
             RETURNING id
             """,
             new
@@ -44,6 +45,7 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
                 run.Error,
                 run.SampleMethod,
                 ProfileJson = run.Profile is null ? null : StoreJson.Serialize(run.Profile),
+                BaselineJson = run.JudgedAgainst is null ? null : StoreJson.Serialize(run.JudgedAgainst),
                 FiguresJson = run.SourceFigures is null ? null : StoreJson.Serialize(run.SourceFigures),
                 Points = points,
             },
@@ -123,7 +125,7 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
             """
             SELECT pair AS Pair, policy AS Policy, policy_text AS PolicyText, created_at_ms AS CreatedAtMs, covers_from_ms AS CoversFromMs,
                    covers_to_ms AS CoversToMs, run_count AS RunCount, accepted AS Accepted, profile_json AS ProfileJson, points AS Points,
-                   mean_run_used AS MeanRunUsed
+                   mean_run_used AS MeanRunUsed, runs_json AS RunsJson
             FROM baselines WHERE pair = @Pair
             """,
             new { Pair = pair },
@@ -137,13 +139,13 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
         await using var connection = await database.OpenAsync(cancellationToken);
         await connection.ExecuteAsync(new CommandDefinition(
             """
-            INSERT INTO baselines (pair, policy, policy_text, created_at_ms, covers_from_ms, covers_to_ms, run_count, accepted, profile_json, points, mean_run_used)
-            VALUES (@Pair, @Policy, @PolicyText, @CreatedAtMs, @CoversFromMs, @CoversToMs, @RunCount, @Accepted, @ProfileJson, @Points, @MeanRunUsed)
+            INSERT INTO baselines (pair, policy, policy_text, created_at_ms, covers_from_ms, covers_to_ms, run_count, accepted, profile_json, points, mean_run_used, runs_json)
+            VALUES (@Pair, @Policy, @PolicyText, @CreatedAtMs, @CoversFromMs, @CoversToMs, @RunCount, @Accepted, @ProfileJson, @Points, @MeanRunUsed, @RunsJson)
             ON CONFLICT (pair) DO UPDATE SET
                 policy = excluded.policy, policy_text = excluded.policy_text, created_at_ms = excluded.created_at_ms,
                 covers_from_ms = excluded.covers_from_ms, covers_to_ms = excluded.covers_to_ms, run_count = excluded.run_count,
                 accepted = excluded.accepted, profile_json = excluded.profile_json, points = excluded.points,
-                mean_run_used = excluded.mean_run_used
+                mean_run_used = excluded.mean_run_used, runs_json = excluded.runs_json
             """,
             new
             {
@@ -159,6 +161,7 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
                 ProfileJson = StoreJson.Serialize(baseline.Profile),
                 Points = PointsCodec.Encode(baseline.Points),
                 MeanRunUsed = Finite(baseline.MeanRunUsed),
+                RunsJson = StoreJson.Serialize(baseline.Runs),
             },
             cancellationToken: cancellationToken));
     }
@@ -222,6 +225,7 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
         public string? ProfileJson { get; init; }
         public string? FiguresJson { get; init; }
         public byte[]? Points { get; init; }
+        public string? BaselineJson { get; init; }
 
         public RunRecord ToRecord(IReadOnlyList<Finding> findings) => new(
             Id,
@@ -234,7 +238,10 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
             findings,
             StoreJson.Deserialize<SourceFigures>(FiguresJson),
             Points is null ? null : PointsCodec.Decode(Points),
-            SampleMethod);
+            SampleMethod)
+        {
+            JudgedAgainst = StoreJson.Deserialize<BaselineSummary>(BaselineJson),
+        };
     }
 
     private sealed class FindingRow
@@ -268,6 +275,8 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
         public byte[] Points { get; init; } = [];
         public double? MeanRunUsed { get; init; }
 
+        public string? RunsJson { get; init; }
+
         public StoredBaseline ToBaseline() => new(
             Pair,
             StoreJson.ParseEnum<BaselinePolicyKind>(Policy),
@@ -279,6 +288,9 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
             StoreJson.Deserialize<RelationshipProfile>(ProfileJson) ?? throw new FormatException($"Baseline of {Pair} has an empty profile."),
             PointsCodec.Decode(Points),
             Accepted != 0,
-            MeanRunUsed);
+            MeanRunUsed)
+        {
+            Runs = StoreJson.Deserialize<List<RunFigures>>(RunsJson) ?? [],
+        };
     }
 }

@@ -1,3 +1,4 @@
+using DriftWatch.Core.History;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Findings;
 using DriftWatch.Core.Profiling;
@@ -82,7 +83,7 @@ public sealed class AssessTests
     {
         var sample = ReferenceData.Anscombe(3);
         var expected = FindingEngine.ForProfile(Scenarios.Profile(sample), PairExpectation.Default, Thresholds.Default);
-        var actual = FindingEngine.Assess(Scenarios.Profile(sample), sample, null, null, PairExpectation.Default, Thresholds.Default);
+        var actual = FindingEngine.Assess(Scenarios.Profile(sample), sample, (SourceFigures?)null, (StoredBaseline?)null, PairExpectation.Default, Thresholds.Default);
 
         Assert.Equal(expected, actual);
     }

@@ -1,0 +1,28 @@
+using DriftWatch.Core.Baselines;
+using DriftWatch.Core.Profiling;
+
+namespace DriftWatch.Core.Findings;
+
+/// <summary>
+/// What a comparison needs of a baseline: its runs' own figures (the normal range) and the pooled profile and
+/// points (shape, plots, the Kolmogorov–Smirnov tests).
+/// </summary>
+/// <param name="Runs">The pooled runs' figures; never empty (a baseline without them stands as one run).</param>
+internal sealed record BaselineView(IReadOnlyList<RunFigures> Runs, RelationshipProfile Pooled, PairedSample Points)
+{
+    public static BaselineView Of(RelationshipProfile pooled, PairedSample points, IReadOnlyList<RunFigures>? runs, Statistics.Thresholds t) =>
+        new(runs is { Count: > 0 } ? runs : [RunFigures.Of(0, default, pooled, null, t)], pooled, points);
+
+    /// <summary>Mean of a figure over the runs that have it; null when none has it.</summary>
+    public double? Mean(Func<RunFigures, double?> figure)
+    {
+        var values = Runs.Select(figure).Where(v => v is { } d && double.IsFinite(d)).Select(v => v!.Value).ToArray();
+        return values.Length == 0 ? null : values.Average();
+    }
+
+    /// <summary>At least half of the runs have the property: it is the pair's normal state, not news.</summary>
+    public bool Mostly(Func<RunFigures, bool> property) => Runs.Count(property) * 2 >= Runs.Count;
+
+    /// <summary>Some baseline run had the property already.</summary>
+    public bool Ever(Func<RunFigures, bool> property) => Runs.Any(property);
+}
