@@ -14,13 +14,13 @@ public sealed record Thresholds
     public const double DefaultUnitFactorTolerance = 0.02;
     public const double DefaultUnitFactorMaxTolerance = 0.08;
     public const double DefaultCurvatureMinR2Gain = 0.02;
-    public const double DefaultMinOutlierRateIncrease = 0.02;
+    public const double DefaultMinOutlierRateIncrease = 0.005;
     public const double DefaultMaxOutlierRate = 0.01;
     public const double DefaultLeverageCooksDistance = 1.0;
     public const double DefaultMinNullRateIncrease = 0.05;
     public const double DefaultSampleShrinkRatio = 0.5;
     public const double DefaultNoRelationshipR = 0.2;
-    public const double DefaultMinOffsetShiftSds = 1.0;
+    public const double DefaultMinOffsetShiftSds = 0.5;
     public const double DefaultLeverageHat = 0.5;
     public const double DefaultStrongRelationshipR = 0.5;
     public const double DefaultMinKsStatistic = 0.1;
