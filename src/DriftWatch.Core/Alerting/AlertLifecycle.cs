@@ -13,6 +13,7 @@ namespace DriftWatch.Core.Alerting;
 /// pending, for the dashboard.</item>
 /// <item>check_failing is critical (a pair that cannot be checked is watched by nobody) and fires after
 /// <see cref="AlertingConfig.CheckFailingAfter"/> failed checks in a row; that count is its persistence.</item>
+/// <item>An info sighting of an alert that already fired keeps it open at its severity, without a notice: a known state.</item>
 /// <item>A successful run without the kind resolves it; a recovery notice goes out only for alerts people were told about.</item>
 /// <item>A failed check leaves the pair's other alerts as they were: nothing was learnt about them.</item>
 /// <item>Re-notify: a firing, unacknowledged alert confirmed by this run whose last notice is at least
@@ -80,6 +81,14 @@ public static class AlertLifecycle
 
         foreach (var (kind, finding) in byKind)
         {
+            // An info sighting of an alert people were already told about confirms a known state (an exact pair
+            // whose baseline is exact too): the alert stays open at its severity and is not announced again.
+            if (finding.Severity == Severity.Info && open.TryGetValue((outcome.Pair, kind), out var known) && known.State.Status == AlertStatus.Firing)
+            {
+                Observe(open, touched, outcome.Pair, kind, known.State.Severity, finding.Message, outcome.RunId, now);
+                continue;
+            }
+
             var slot = Observe(open, touched, outcome.Pair, kind, finding.Severity, finding.Message, outcome.RunId, now);
             var persistence = finding.Severity == Severity.Critical ? config.CriticalPersistence : config.WarningPersistence;
             MaybeFire(slot, Math.Max(1, persistence), now);
