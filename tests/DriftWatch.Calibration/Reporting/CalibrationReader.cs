@@ -1,0 +1,165 @@
+using DriftWatch.Calibration.Generation;
+using DriftWatch.Calibration.Running;
+using DriftWatch.Core.Alerting;
+using DriftWatch.Core.Findings;
+using DriftWatch.Core.History;
+using DriftWatch.Output;
+using DriftWatch.Store;
+
+namespace DriftWatch.Calibration.Reporting;
+
+/// <summary>
+/// Reads a finished run back from DriftWatch's own store (runs, findings, alert states), not from what the checks
+/// returned in memory, so the figures are what the dashboard and the mails were based on.
+/// </summary>
+internal static class CalibrationReader
+{
+    public static async Task<(HealthyRates Healthy, IReadOnlyList<FaultOutcome> Faults)> ReadAsync(
+        CalibrationPlan plan,
+        IHistoryStore history,
+        IAlertStore alerts,
+        IReadOnlyDictionary<string, int> faultDayRows,
+        CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(plan);
+        ArgumentNullException.ThrowIfNull(history);
+        ArgumentNullException.ThrowIfNull(alerts);
+        ArgumentNullException.ThrowIfNull(faultDayRows);
+        var options = plan.Options;
+        var runs = new Dictionary<string, IReadOnlyList<RunRecord>>(StringComparer.Ordinal);
+        foreach (var pair in plan.Pairs)
+        {
+            var newestFirst = await history.GetRunsAsync(pair.Name, options.Days + 10, includePoints: false, cancellationToken);
+            runs[pair.Name] = [.. newestFirst.OrderBy(r => r.StartedAt).ThenBy(r => r.Id)];
+        }
+
+        var since = CalibrationPlan.CheckTimeOf(1).AddDays(-1);
+        var allAlerts = (await alerts.ListAlertsAsync(since, int.MaxValue, cancellationToken))
+            .GroupBy(a => a.Pair, StringComparer.Ordinal)
+            .ToDictionary(g => g.Key, g => g.ToArray(), StringComparer.Ordinal);
+        AlertState[] AlertsOf(string pair) => allAlerts.TryGetValue(pair, out var list) ? list : [];
+
+        var healthy = ReadHealthy(plan, runs, AlertsOf);
+        var faults = plan.Pairs
+            .Where(p => p.Fault is not null)
+            .Select(p => Judge(p, options.FaultDay, runs[p.Name], AlertsOf(p.Name), faultDayRows.GetValueOrDefault(p.Name)))
+            .ToArray();
+        return (healthy, faults);
+    }
+
+    private static HealthyRates ReadHealthy(CalibrationPlan plan, Dictionary<string, IReadOnlyList<RunRecord>> runs, Func<string, AlertState[]> alertsOf)
+    {
+        var first = plan.Options.BaselineDays + 1;
+        var findings = new Dictionary<string, int>(StringComparer.Ordinal);
+        var fired = new Dictionary<string, int>(StringComparer.Ordinal);
+        var families = new List<FamilyCount>();
+        var samples = new List<string>();
+        int checks = 0, findingCount = 0, firedCount = 0, unmeasuredBaseline = 0, unmeasuredMonitored = 0;
+        foreach (var group in plan.Pairs.Where(p => p.Healthy).GroupBy(p => p.Family))
+        {
+            int fChecks = 0, fFindings = 0, fFired = 0, fUnmeasured = 0;
+            foreach (var pair in group)
+            {
+                foreach (var run in runs[pair.Name])
+                {
+                    var day = CalibrationPlan.DayOf(run.StartedAt);
+                    var monitored = day >= first;
+                    if (run.Status != RunStatus.Succeeded)
+                    {
+                        fUnmeasured++;
+                        _ = monitored ? unmeasuredMonitored++ : unmeasuredBaseline++;
+                        if (samples.Count < 5)
+                        {
+                            samples.Add($"{pair.Name} day {day}: {JsonContract.Name(run.Status)}: {run.Error}");
+                        }
+                    }
+
+                    if (!monitored)
+                    {
+                        continue;
+                    }
+
+                    fChecks++;
+                    foreach (var finding in run.Findings.Where(f => f.Severity >= Severity.Warning))
+                    {
+                        fFindings++;
+                        Add(findings, JsonContract.Name(finding.Kind));
+                    }
+                }
+
+                foreach (var alert in alertsOf(pair.Name).Where(a => a.FiredAt is { } at && CalibrationPlan.DayOf(at) >= first))
+                {
+                    fFired++;
+                    Add(fired, JsonContract.Name(alert.Kind));
+                }
+            }
+
+            checks += fChecks;
+            findingCount += fFindings;
+            firedCount += fFired;
+            families.Add(new FamilyCount(HealthyFamilies.Name(group.Key), group.Count(), fChecks, fFindings, fFired, fUnmeasured));
+        }
+
+        var kinds = findings.Keys.Union(fired.Keys)
+            .Select(k => new KindCount(k, findings.GetValueOrDefault(k), fired.GetValueOrDefault(k)))
+            .OrderByDescending(k => k.Findings).ThenByDescending(k => k.Fired).ThenBy(k => k.Kind, StringComparer.Ordinal)
+            .ToArray();
+        return new HealthyRates(plan.Pairs.Count(p => p.Healthy), checks, findingCount, firedCount, unmeasuredBaseline, unmeasuredMonitored, kinds, families, samples);
+    }
+
+    private static FaultOutcome Judge(CalibrationPair pair, int faultDay, IReadOnlyList<RunRecord> runs, AlertState[] alerts, int rows)
+    {
+        var fault = pair.Fault!;
+        var last = faultDay + 1;
+
+        // An alert counts when it fired by the second check after injection and was seen from the first one on
+        // (an alert resolved before the fault and fired earlier is not news of it).
+        var inTime = alerts
+            .Where(a => a.FiredAt is { } at && CalibrationPlan.DayOf(at) <= last && CalibrationPlan.DayOf(a.LastSeen) >= faultDay)
+            .ToArray();
+        var caught = inTime.Where(a => fault.Expected.Contains(a.Kind)).OrderBy(a => a.FiredAt).ToArray();
+        var window = runs.Where(r => CalibrationPlan.DayOf(r.StartedAt) is var d && d >= faultDay && d <= last).ToArray();
+        var expectedFindings = window.SelectMany(r => r.Findings).Where(f => fault.Expected.Contains(f.Kind)).ToArray();
+        Severity? severity = caught.Length > 0 ? caught.Max(a => a.Severity)
+            : expectedFindings.Length > 0 ? expectedFindings.Max(f => f.Severity)
+            : null;
+
+        var firstWith = window.FirstOrDefault(r => r.Findings.Count > 0 || r.Status != RunStatus.Succeeded);
+        var first = firstWith is null ? []
+            : firstWith.Status != RunStatus.Succeeded ? [$"{JsonContract.Name(firstWith.Status)}{DayMark(firstWith, faultDay)}"]
+            : firstWith.Findings
+                .OrderByDescending(f => f.Severity)
+                .Select(f => $"{JsonContract.Name(f.Kind)} {JsonContract.Name(f.Severity)}{DayMark(firstWith, faultDay)}")
+                .Distinct(StringComparer.Ordinal)
+                .ToArray();
+
+        bool? critical = null, named = null;
+        if (fault.SlopeRatio is { } ratio)
+        {
+            var slopes = window.SelectMany(r => r.Findings).Where(f => f.Kind == FindingKind.SlopeShift).ToArray();
+            critical = slopes.Any(f => f.Severity == Severity.Critical);
+            named = slopes.Any(f => UnitFactorNaming.Names(f.Message, ratio));
+        }
+
+        return new FaultOutcome(
+            fault,
+            pair.Name,
+            HealthyFamilies.Name(pair.Family),
+            pair.Storage.ToString().ToLowerInvariant(),
+            rows,
+            caught.Length > 0,
+            caught.Length > 0 ? CalibrationPlan.DayOf(caught[0].FiredAt!.Value) : null,
+            inTime.Length > 0,
+            [.. inTime.Select(a => JsonContract.Name(a.Kind)).Distinct(StringComparer.Ordinal)],
+            severity,
+            first,
+            critical,
+            named,
+            runs.Count(r => r.Status != RunStatus.Succeeded));
+    }
+
+    private static string DayMark(RunRecord run, int faultDay) =>
+        CalibrationPlan.DayOf(run.StartedAt) == faultDay ? string.Empty : "@d+1";
+
+    private static void Add(Dictionary<string, int> counts, string key) => counts[key] = counts.GetValueOrDefault(key) + 1;
+}
