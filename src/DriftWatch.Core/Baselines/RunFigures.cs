@@ -24,6 +24,7 @@ namespace DriftWatch.Core.Baselines;
 /// <param name="IsExactFunction">The sample was an exact affine or monotone function.</param>
 /// <param name="Leverage">One row dominated the sample's line.</param>
 /// <param name="LineDisagrees">The exact whole-window line and the sample's line disagreed beyond sampling error.</param>
+/// <param name="DerivedShare">Share of the sample's rows lying exactly on one line.</param>
 public sealed record RunFigures(
     long RunId,
     DateTimeOffset StartedAt,
@@ -44,7 +45,8 @@ public sealed record RunFigures(
     double? CurvatureGain,
     bool IsExactFunction,
     bool Leverage = false,
-    bool LineDisagrees = false)
+    bool LineDisagrees = false,
+    double? DerivedShare = null)
 {
     /// <summary>Share of the window's rows without a usable x or y.</summary>
     public double DropRate => Rows > 0 ? (double)(Rows - Used) / Rows : 0;
@@ -72,7 +74,7 @@ public sealed record RunFigures(
                 runId, startedAt, false, rows, used, profile.NUsed,
                 profile.PearsonR, profile.SpearmanRho, profile.Slope, robustSe, profile.Intercept,
                 profile.XMean, profile.XSd, profile.YMean, profile.ResidualSd,
-                profile.OutlierRate, profile.QuadraticR2Gain ?? 0, profile.ExactAffine || profile.ExactMonotone, leverage, disagrees);
+                profile.OutlierRate, profile.QuadraticR2Gain ?? 0, profile.ExactAffine || profile.ExactMonotone, leverage, disagrees, profile.DerivedShare);
         }
 
         var f = exact!;
@@ -87,6 +89,6 @@ public sealed record RunFigures(
             runId, startedAt, true, f.RowCount, f.UsedCount, profile.NUsed,
             r, profile.SpearmanRho, f.Slope, slopeSe, f.Intercept,
             f.XMean, sdx, f.YMean, residualSd,
-            profile.OutlierRate, profile.QuadraticR2Gain ?? 0, profile.ExactAffine || profile.ExactMonotone, leverage, disagrees);
+            profile.OutlierRate, profile.QuadraticR2Gain ?? 0, profile.ExactAffine || profile.ExactMonotone, leverage, disagrees, profile.DerivedShare);
     }
 }

@@ -23,6 +23,7 @@ internal static class ComparisonFindings
         if (bothDefined)
         {
             BecamePerfect(cur, bas, expect, c, findings);
+            PartlyDerived(cur, bas, expect, t, c, findings);
             if (!bas.Mostly(r => r.IsExactFunction) && !(cur.ExactAffine || cur.ExactMonotone))
             {
                 Correlations(cur, now, bas, t, c, findings);
@@ -55,6 +56,31 @@ internal static class ComparisonFindings
             null,
             cur.ExactAffine ? cur.PearsonR : cur.SpearmanRho,
             $"{c.Y} became {what}; in the baseline it was not an exact function of {c.X} (r = {Numbers.Sig(r0, 4)}): look for a job or view that now copies or derives {c.Y} from {c.X}."));
+    }
+
+    /// <summary>
+    /// A share of rows now lies exactly on one line, which the baseline's runs did not show: part of the rows is
+    /// copied or derived from the other column. Critical, like <see cref="FindingKind.BecamePerfect"/>.
+    /// </summary>
+    private static void PartlyDerived(RelationshipProfile cur, BaselineView bas, PairExpectation expect, Thresholds t, ColumnNames c, List<Finding> findings)
+    {
+        if (expect.Exact || cur.ExactAffine || cur.ExactMonotone || cur.DerivedShare is not { } share)
+        {
+            return;
+        }
+
+        double before = bas.Mean(r => r.DerivedShare) ?? bas.Pooled.DerivedShare ?? 0;
+        if (share < t.MinDerivedShare || share - before < t.MinDerivedShare)
+        {
+            return;
+        }
+
+        findings.Add(new Finding(
+            FindingKind.PartlyDerived,
+            Severity.Critical,
+            null,
+            share,
+            $"{Numbers.Percent(share)} of the sampled rows now lie exactly on one line, {c.Equation(cur.DerivedEquation)}, against {Numbers.Percent(before)} in the baseline runs: on those rows {c.Y} is copied or derived from {c.X}; look for a job, source system or default that fills {c.Y} from {c.X}."));
     }
 
     /// <summary>
@@ -253,9 +279,13 @@ internal static class ComparisonFindings
         if (now.Leverage && !bas.Ever(r => r.Leverage) && !ProfileFindings.IsLeverage(bas.Pooled, t))
         {
             string without = cur.PearsonRWithoutTopInfluence is { } rw ? $"r would be {Numbers.Sig(rw)} without it" : "r is undefined without it";
+
+            // A row that alone changes r by a material amount changes what every reader of the table sees (a
+            // total row among detail rows): critical, as it may be gone again at the next load.
+            bool decisive = cur.PearsonR is { } r && (cur.PearsonRWithoutTopInfluence is not { } rw2 || Math.Abs(r - rw2) >= t.MinCorrelationChange);
             findings.Add(new Finding(
                 FindingKind.LeverageAppeared,
-                Severity.Warning,
+                decisive ? Severity.Critical : Severity.Warning,
                 null,
                 cur.MaxCooksDistance is { } d && cur.MaxLeverage < 1 ? d : cur.MaxLeverage,
                 $"A single row now sets the slope of {c.Y} on {c.X} (leverage {Numbers.Sig(cur.MaxLeverage)}; {without}), which no row did in the baseline: check that row."));
@@ -281,22 +311,50 @@ internal static class ComparisonFindings
             }
         }
 
-        // Row counts vary by a factor, so they are compared on a log scale; Poisson variance 1/n for each count.
-        var counts = RunSpread.Of(bas.Runs.Where(r => r.Used > 0).Select(r => (Math.Log(r.Used), 1.0 / r.Used)), 1.0 / Math.Max(1, now.Used));
-        if (counts is { } k)
+        RowCount(now, bas, t, findings);
+    }
+
+    /// <summary>
+    /// Rows in the window against the baseline runs', on a log scale (counts vary by a factor), with Poisson
+    /// variance 1/n per count. Volumes follow the week: a weekend run is compared with the baseline's weekend runs
+    /// and a weekday run with its weekday runs (the spread pooled within the two groups). A run of a kind of day
+    /// the baseline never saw (a weekend after a baseline of weekdays) is compared with all runs, and only a drop
+    /// to half the usual cut counts, since its normal volume is unknown.
+    /// </summary>
+    private static void RowCount(RunFigures now, BaselineView bas, Thresholds t, List<Finding> findings)
+    {
+        var runs = bas.Runs.Where(r => r.Used > 0).ToArray();
+        if (runs.Length == 0)
         {
-            double typical = Math.Exp(k.Centre);
-            double ratio = now.Used / typical;
-            double p = now.Used == 0 ? 0 : k.DecreaseP(Math.Log(now.Used));
-            if (ratio < t.SampleShrinkRatio && p < t.Alpha)
-            {
-                findings.Add(new Finding(
-                    FindingKind.SampleShrank,
-                    Severity.Warning,
-                    p,
-                    ratio,
-                    $"The window holds {Numbers.Count(now.Used)} usable rows against about {Numbers.Count((long)Math.Round(typical))} in the baseline runs ({Numbers.Percent(ratio)}, {Numbers.P(p)}): a load may be missing or a filter may cut rows, and every comparison has less power."));
-            }
+            return;
+        }
+
+        static bool Weekend(DateTimeOffset at) => at.UtcDateTime.DayOfWeek is DayOfWeek.Saturday or DayOfWeek.Sunday;
+        bool nowWeekend = Weekend(now.StartedAt);
+        bool grouped = now.StartedAt != default && runs.Any(r => Weekend(r.StartedAt)) && runs.Any(r => !Weekend(r.StartedAt));
+        bool unseen = now.StartedAt != default && !runs.Any(r => Weekend(r.StartedAt) == nowWeekend);
+        double GroupMean(bool weekend) => runs.Where(r => Weekend(r.StartedAt) == weekend).Average(r => Math.Log(r.Used));
+        var values = grouped
+            ? runs.Select(r => (Math.Log(r.Used) - GroupMean(Weekend(r.StartedAt)) + GroupMean(nowWeekend), 1.0 / r.Used))
+            : runs.Select(r => (Math.Log(r.Used), 1.0 / r.Used));
+        if (RunSpread.Of(values, 1.0 / Math.Max(1, now.Used)) is not { } k)
+        {
+            return;
+        }
+
+        double typical = Math.Exp(k.Centre);
+        double ratio = now.Used / typical;
+        double p = now.Used == 0 ? 0 : k.DecreaseP(Math.Log(now.Used));
+        double cut = unseen ? t.SampleShrinkRatio / 2 : t.SampleShrinkRatio;
+        if (ratio < cut && p < t.Alpha)
+        {
+            string which = grouped ? (nowWeekend ? " weekend" : " weekday") : string.Empty;
+            findings.Add(new Finding(
+                FindingKind.SampleShrank,
+                Severity.Warning,
+                p,
+                ratio,
+                $"The window holds {Numbers.Count(now.Used)} usable rows against about {Numbers.Count((long)Math.Round(typical))} in the baseline's{which} runs ({Numbers.Percent(ratio)}, {Numbers.P(p)}): a load may be missing or a filter may cut rows, and every comparison has less power."));
         }
     }
 

@@ -13,7 +13,8 @@ internal static class FindingDeduplication
 {
     private static readonly (FindingKind Stronger, FindingKind[] Explains)[] Rules =
     [
-        (FindingKind.BecamePerfect, [FindingKind.PerfectRelationship, FindingKind.CorrelationShift, FindingKind.Curvature, FindingKind.CurvatureAppeared, FindingKind.SlopeShift, FindingKind.OffsetShift]),
+        (FindingKind.PartlyDerived, [FindingKind.CorrelationShift, FindingKind.SlopeShift, FindingKind.OffsetShift, FindingKind.OutlierSurge, FindingKind.CurvatureAppeared]),
+        (FindingKind.BecamePerfect, [FindingKind.PerfectRelationship, FindingKind.PartlyDerived, FindingKind.CorrelationShift, FindingKind.Curvature, FindingKind.CurvatureAppeared, FindingKind.SlopeShift, FindingKind.OffsetShift]),
         (FindingKind.RelationshipLost, [FindingKind.CorrelationShift, FindingKind.SlopeShift, FindingKind.OffsetShift]),
         (FindingKind.SlopeShift, [FindingKind.OffsetShift]),
         (FindingKind.CurvatureAppeared, [FindingKind.Curvature]),

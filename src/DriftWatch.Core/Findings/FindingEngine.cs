@@ -65,7 +65,7 @@ public static class FindingEngine
     {
         ArgumentNullException.ThrowIfNull(t);
         var view = baseline is null ? null : BaselineView.Of(baseline, baselineSample ?? PairedSample.Empty, null, t);
-        return Assess(current, currentSample, null, view, expect, t, xName, yName);
+        return Assess(current, currentSample, null, view, expect, t, xName, yName, default);
     }
 
     /// <summary>
@@ -74,6 +74,7 @@ public static class FindingEngine
     /// ordered by severity (worst first).
     /// </summary>
     /// <param name="exact">The source's exact whole-window figures for this run, when it computed them.</param>
+    /// <param name="at">When the run started (weekday-aware comparisons); default when unknown.</param>
     public static IReadOnlyList<Finding> Assess(
         RelationshipProfile current,
         PairedSample currentSample,
@@ -82,11 +83,12 @@ public static class FindingEngine
         PairExpectation expect,
         Thresholds t,
         string xName = "x",
-        string yName = "y")
+        string yName = "y",
+        DateTimeOffset at = default)
     {
         ArgumentNullException.ThrowIfNull(t);
         var view = baseline is null ? null : BaselineView.Of(baseline.Profile, baseline.Points, baseline.Runs, t);
-        return Assess(current, currentSample, exact, view, expect, t, xName, yName);
+        return Assess(current, currentSample, exact, view, expect, t, xName, yName, at);
     }
 
     private static IReadOnlyList<Finding> Assess(
@@ -97,7 +99,8 @@ public static class FindingEngine
         PairExpectation expect,
         Thresholds t,
         string xName,
-        string yName)
+        string yName,
+        DateTimeOffset at)
     {
         ArgumentNullException.ThrowIfNull(current);
         ArgumentNullException.ThrowIfNull(currentSample);
@@ -113,7 +116,7 @@ public static class FindingEngine
 
         var comparison = baseline is null
             ? []
-            : ComparisonFindings.Of(current, RunFigures.Of(0, default, current, exact, t), currentSample, baseline, expect, t, names);
+            : ComparisonFindings.Of(current, RunFigures.Of(0, at, current, exact, t), currentSample, baseline, expect, t, names);
         return FindingDeduplication.Merge(own, comparison, current, baseline?.Pooled, t);
     }
 }

@@ -14,6 +14,7 @@ public enum FindingKind
 
     // Current profile against the baseline.
     BecamePerfect,
+    PartlyDerived,
     CorrelationShift,
     SignFlip,
     RelationshipLost,

@@ -58,7 +58,18 @@ internal static class ProfileComputation
             };
         }
 
-        return Relationship(x.Length, rankX, rankY, cx, cy, identity, profile, t);
+        var related = Relationship(x.Length, rankX, rankY, cx, cy, identity, profile, t);
+        if (related.ExactAffine)
+        {
+            return related with { DerivedShare = 1 };
+        }
+
+        var derived = DerivedRows.Of(x, y, t.ExactRelativeTolerance * cy.StandardDeviation);
+        return related with
+        {
+            DerivedShare = derived?.Share,
+            DerivedEquation = derived is { Share: > 0 } d ? EquationText.Affine(d.Slope, d.Intercept, t.ExactRelativeTolerance * cy.StandardDeviation) : null,
+        };
     }
 
     private static RelationshipProfile Relationship(

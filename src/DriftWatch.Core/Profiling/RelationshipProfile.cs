@@ -53,6 +53,15 @@ public sealed record RelationshipProfile
     public bool ExactIdentity { get; init; }
     public bool ExactMonotone { get; init; }
     public string? Equation { get; init; }
+
+    /// <summary>
+    /// The largest share of rows lying exactly on one straight line (1 for an exact affine pair): rows copied or
+    /// derived from the other column. Null when undefined (fewer than 10 rows).
+    /// </summary>
+    public double? DerivedShare { get; init; }
+
+    /// <summary>That line, as "y = 1.2·x", when any rows lie on it.</summary>
+    public string? DerivedEquation { get; init; }
     public Shape Shape { get; init; }
     public string? ShapeReason { get; init; }
 }

@@ -24,6 +24,7 @@ public sealed record Thresholds
     public const double DefaultLeverageHat = 0.5;
     public const double DefaultStrongRelationshipR = 0.5;
     public const double DefaultMinKsStatistic = 0.1;
+    public const double DefaultMinDerivedShare = 0.2;
 
     /// <summary>Significance level for every hypothesis test in a comparison.</summary>
     public double Alpha { get; init; } = DefaultAlpha;
@@ -87,6 +88,12 @@ public sealed record Thresholds
 
     /// <summary>Minimum Kolmogorov–Smirnov distance D for a marginal shift, so huge samples do not alert on trivia.</summary>
     public double MinKsStatistic { get; init; } = DefaultMinKsStatistic;
+
+    /// <summary>
+    /// <c>partly_derived</c>: the share of rows lying exactly on one line must have risen by at least this over the
+    /// baseline runs' (absolute), and be at least this now.
+    /// </summary>
+    public double MinDerivedShare { get; init; } = DefaultMinDerivedShare;
 
     public static Thresholds Default { get; } = new();
 }

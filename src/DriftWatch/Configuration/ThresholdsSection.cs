@@ -19,6 +19,7 @@ internal static class ThresholdsSection
         ("min_correlation_change", CorrelationSpan, (t, v) => t with { MinCorrelationChange = v }),
         ("min_slope_ratio_change", NumberRange.NonNegative, (t, v) => t with { MinSlopeRatioChange = v }),
         ("unit_factor_tolerance", new NumberRange(0, true, 1, false), (t, v) => t with { UnitFactorTolerance = v }),
+        ("min_derived_share", NumberRange.Fraction, (t, v) => t with { MinDerivedShare = v }),
         ("unit_factor_max_tolerance", new NumberRange(0, true, 1, false), (t, v) => t with { UnitFactorMaxTolerance = v }),
         ("curvature_min_r2_gain", NumberRange.Fraction, (t, v) => t with { CurvatureMinR2Gain = v }),
         ("min_outlier_rate_increase", NumberRange.Fraction, (t, v) => t with { MinOutlierRateIncrease = v }),

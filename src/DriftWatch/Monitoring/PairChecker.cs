@@ -39,7 +39,7 @@ internal sealed class PairChecker(
             sampled = await sources.Create(source).SampleAsync(pair, startedAt, cancellationToken);
             profile = Profiler.Profile(sampled.Sample, pair.Thresholds);
             baseline = await baselines.GetOrBuildAsync(pair, startedAt, cancellationToken);
-            findings = FindingEngine.Assess(profile, sampled.Sample, sampled.Figures, baseline, pair.Expect, pair.Thresholds, pair.X, pair.Y);
+            findings = FindingEngine.Assess(profile, sampled.Sample, sampled.Figures, baseline, pair.Expect, pair.Thresholds, pair.X, pair.Y, startedAt);
         }
         catch (OperationCanceledException) when (cancellationToken.IsCancellationRequested)
         {

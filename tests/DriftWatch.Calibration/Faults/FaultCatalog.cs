@@ -22,7 +22,7 @@ internal static class FaultCatalog
     public static readonly double[] UnitFactors = [1.609344, 2.20462, 1000, 100, 3.6];
 
     private static readonly FindingKind[] Exactness = [FindingKind.BecamePerfect, FindingKind.PerfectRelationship];
-    private static readonly FindingKind[] PartialCopy = [FindingKind.BecamePerfect, FindingKind.CorrelationShift];
+    private static readonly FindingKind[] PartialCopy = [FindingKind.PartlyDerived, FindingKind.BecamePerfect, FindingKind.CorrelationShift];
     private static readonly FindingKind[] Slope = [FindingKind.SlopeShift];
     private static readonly FindingKind[] Offset = [FindingKind.OffsetShift];
     private static readonly FindingKind[] Scrambled = [FindingKind.CorrelationShift, FindingKind.RelationshipLost, FindingKind.OutlierSurge];
@@ -31,7 +31,7 @@ internal static class FaultCatalog
     private static readonly FindingKind[] Sign = [FindingKind.SignFlip];
     private static readonly FindingKind[] Shrunk = [FindingKind.SampleShrank];
     private static readonly FindingKind[] Bent = [FindingKind.CurvatureAppeared, FindingKind.SlopeShift];
-    private static readonly FindingKind[] Total = [FindingKind.LeverageAppeared, FindingKind.SinglePointLeverage, FindingKind.OutlierSurge, FindingKind.CorrelationShift, FindingKind.SlopeShift];
+    private static readonly FindingKind[] Total = [FindingKind.HiddenRowsDriveLine, FindingKind.LeverageAppeared, FindingKind.SinglePointLeverage, FindingKind.OutlierSurge, FindingKind.CorrelationShift, FindingKind.SlopeShift];
 
     /// <summary>Every fault at every size (the full run).</summary>
     public static IReadOnlyList<FaultCase> Full() => Assign(Cases(includeLarge: true));
