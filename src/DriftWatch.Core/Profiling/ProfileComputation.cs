@@ -9,8 +9,26 @@ namespace DriftWatch.Core.Profiling;
 /// </summary>
 internal static class ProfileComputation
 {
-    /// <summary>Rounding allowance, in units of ε × magnitude, before a residual counts as non-zero.</summary>
-    private const double RoundingUlps = 16;
+    /// <summary>
+    /// Rounding allowance of the arithmetic on centred values, in units of ε × the size of the deviations
+    /// (the profile's own sums and products, which scale with the spread, not with the magnitude).
+    /// </summary>
+    private const double ComputationUlps = 16;
+
+    /// <summary>
+    /// Rounding allowance of the values themselves, in units of the spacing of doubles at the column's
+    /// largest |value|: a derived column rounded once to a double is off by up to half a spacing per
+    /// value, and the least-squares line can pass up to a few of those away from a row (rows at |z| up to
+    /// about 14 stay within 8 spacings).
+    /// </summary>
+    private const double RepresentationUlps = 8;
+
+    /// <summary>
+    /// The value rounding may excuse residuals only while it is at most this fraction of SD(y). Coarser
+    /// than that, float64 cannot tell an exact line from a strong noisy one (integers near 2^63 spread
+    /// over a few dozen steps of 1024), and only residuals within the relative tolerance count as exact.
+    /// </summary>
+    private const double ResolvableFraction = 1e-2;
 
     public static RelationshipProfile Run(double[] x, double[] y, RelationshipProfile counts, Thresholds t)
     {
@@ -99,12 +117,8 @@ internal static class ProfileComputation
         double slope = Math.ScaleB(line.Slope, ky - kx);
         double intercept = Math.ScaleB(cy.ScaledMean - (line.Slope * cx.ScaledMean), ky);
 
-        // The exactness tolerance, in scaled y units: relative to y's spread, but never finer than the
-        // rounding of the values themselves (y's magnitude and the size of slope·x).
-        double sdYScaled = Math.Sqrt(line.Syy / (n - 1));
-        double rounding = RoundingUlps * Math.ScaleB(1.0, -52) * (cy.MaxAbsScaled + (Math.Abs(line.Slope) * cx.MaxAbsScaled));
-        double exactTolerance = Math.Max(t.ExactRelativeTolerance * sdYScaled, rounding);
-        bool affine = line.MaxAbsResidual <= exactTolerance;
+        double exactTolerance = ExactTolerance(cx, cy, line, n, t);
+        bool affine = line.MaxAbsResidual <= exactTolerance && IsUnitCorrelation(line, exactTolerance, n);
         bool monotone = !affine && order != RankOrder.Mixed && rankX.Distinct >= 3;
 
         var quadratic = QuadraticFit.Of(u, v, line, rankX.Distinct);
@@ -219,12 +233,57 @@ internal static class ProfileComputation
         return sxx > floor && syy > floor ? Correlation.Pearson(sxx, syy, sxy) : null;
     }
 
+    /// <summary>
+    /// The exactness tolerance, in scaled y units: the relative tolerance of y's spread, widened to the
+    /// rounding of the values themselves only where float64 still resolves the spread, plus the rounding
+    /// of the arithmetic on the centred columns.
+    /// </summary>
+    private static double ExactTolerance(CenteredColumn cx, CenteredColumn cy, LineFit line, int n, Thresholds t)
+    {
+        double sdY = Math.Sqrt(line.Syy / (n - 1));
+        double slope = Math.Abs(line.Slope);
+        double representation = RepresentationUlps * (SpacingScaled(cy) + (slope * SpacingScaled(cx)));
+        double computation = ComputationUlps * Math.ScaleB(1.0, -52) * (MaxAbs(cy.Deviations) + (slope * MaxAbs(cx.Deviations)));
+        double rounding = representation <= ResolvableFraction * sdY ? representation : 0;
+        return Math.Max(t.ExactRelativeTolerance * sdY, rounding) + computation;
+    }
+
+    /// <summary>
+    /// r is ±1 within the tolerance: every |residual| ≤ τ bounds 1 − R² by n τ² / ((n − 1) SD(y)²).
+    /// The residual test implies it; checked on its own so a rule change there cannot call r = −0.98 exact.
+    /// </summary>
+    private static bool IsUnitCorrelation(LineFit line, double tolerance, int n)
+    {
+        double bound = n * tolerance * tolerance / line.Syy;
+        return 1 - line.RSquared <= bound;
+    }
+
+    /// <summary>The spacing of doubles at the column's largest |value|, in the column's scaled units.</summary>
+    private static double SpacingScaled(CenteredColumn c)
+    {
+        double maxAbs = c.Unscale(c.MaxAbsScaled);
+        int exponent = maxAbs == 0 ? -1022 : Math.Max(Math.ILogB(maxAbs), -1022);
+        return Math.ScaleB(1.0, exponent - 52 - c.Exponent);
+    }
+
+    private static double MaxAbs(double[] values)
+    {
+        double max = 0;
+        foreach (double v in values)
+        {
+            max = Math.Max(max, Math.Abs(v));
+        }
+
+        return max;
+    }
+
+    /// <summary>|y − x| within the same kind of tolerance on every row, in the columns' own units.</summary>
     private static bool IsIdentity(double[] x, double[] y, CenteredColumn cx, CenteredColumn cy, Thresholds t)
     {
-        double maxAbs = Math.Max(Math.Abs(cx.Unscale(cx.MaxAbsScaled)), Math.Abs(cy.Unscale(cy.MaxAbsScaled)));
-        double tolerance = Math.Max(
-            x.Length >= 2 ? t.ExactRelativeTolerance * cy.StandardDeviation : 0,
-            RoundingUlps * Math.ScaleB(1.0, -52) * maxAbs);
+        double sdY = x.Length >= 2 ? cy.StandardDeviation : 0;
+        double representation = RepresentationUlps * (cy.Unscale(SpacingScaled(cy)) + cx.Unscale(SpacingScaled(cx)));
+        double rounding = representation <= ResolvableFraction * sdY ? representation : 0;
+        double tolerance = Math.Max(t.ExactRelativeTolerance * sdY, rounding);
         for (int i = 0; i < x.Length; i++)
         {
             if (!(Math.Abs(y[i] - x[i]) <= tolerance))

@@ -52,8 +52,7 @@ internal sealed class PostgresPairSource : IPairSource, IAsyncDisposable
         return await InSessionAsync(pair, target, async (connection, ct) =>
         {
             var from = pair.Window is null ? (DateTimeOffset?)null : now - pair.Window.Last;
-            var sql = new PostgresPairSql(target, from, now);
-            await CheckColumnsAsync(connection, sql, pair, target, ct);
+            var sql = await CheckColumnsAsync(connection, pair, target, from, now, ct);
             var figures = await ReadFiguresAsync(connection, sql, ct);
 
             var needsEstimate = target.IsTable && pair.Sample.Method is SampleMethod.Auto or SampleMethod.Tablesample;
@@ -69,13 +68,39 @@ internal sealed class PostgresPairSource : IPairSource, IAsyncDisposable
         }, cancellationToken);
     }
 
+    public async Task<IReadOnlyList<DrivingRow>> FarthestFromLineAsync(
+        PairConfig pair, DateTimeOffset now, double intercept, double slope, int count, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(pair);
+        LineDistance.CheckCount(count);
+        var line = LineDistance.For(intercept, slope);
+        var target = PairTarget.From(pair);
+        return await InSessionAsync(pair, target, async (connection, ct) =>
+        {
+            var from = pair.Window is null ? (DateTimeOffset?)null : now - pair.Window.Last;
+            var sql = await CheckColumnsAsync(connection, pair, target, from, now, ct);
+            var (text, parameters) = sql.Farthest(line, count);
+            await using var batch = new NpgsqlBatch(connection);
+            batch.BatchCommands.Add(parameters.Command(text));
+            await using var reader = await batch.ExecuteReaderAsync(ct);
+            var rows = new List<DrivingRow>(count);
+            while (await reader.ReadAsync(ct))
+            {
+                double x = reader.GetDouble(0), y = reader.GetDouble(1);
+                rows.Add(new DrivingRow(x, y, line.Residual(x, y)));
+            }
+
+            return (IReadOnlyList<DrivingRow>)rows;
+        }, cancellationToken);
+    }
+
     public async Task ValidateAsync(PairConfig pair, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(pair);
         var target = PairTarget.From(pair);
         await InSessionAsync(pair, target, async (connection, ct) =>
         {
-            await CheckColumnsAsync(connection, new PostgresPairSql(target, null, null), pair, target, ct);
+            await CheckColumnsAsync(connection, pair, target, null, null, ct);
             return true;
         }, cancellationToken);
     }
@@ -134,13 +159,16 @@ internal sealed class PostgresPairSource : IPairSource, IAsyncDisposable
         }
     }
 
-    private static async Task CheckColumnsAsync(NpgsqlConnection connection, PostgresPairSql sql, PairConfig pair, PairTarget target, CancellationToken ct)
+    /// <summary>Checks the columns' types and returns the SQL for them (numeric columns get the range guard).</summary>
+    private static async Task<PostgresPairSql> CheckColumnsAsync(
+        NpgsqlConnection connection, PairConfig pair, PairTarget target, DateTimeOffset? from, DateTimeOffset? to, CancellationToken ct)
     {
-        var (text, parameters) = sql.Probe();
+        var (text, parameters) = new PostgresPairSql(target, from, to).Probe();
         await using var batch = new NpgsqlBatch(connection);
         batch.BatchCommands.Add(parameters.Command(text));
         await using var reader = await batch.ExecuteReaderAsync(CommandBehavior.SchemaOnly, ct);
         string[] names = pair.Window is null ? [pair.X, pair.Y] : [pair.X, pair.Y, pair.Window.Column];
+        var numeric = new bool[2];
         for (var i = 0; i < names.Length; i++)
         {
             var type = reader.GetPostgresType(i);
@@ -155,14 +183,53 @@ internal sealed class PostgresPairSource : IPairSource, IAsyncDisposable
                     ? new SourceException(SourceFailure.QueryError, $"Pair '{pair.Name}' ({target.Describe}): window column {names[i]} is {typeName}; it must be a date or timestamp.")
                     : new SourceException(SourceFailure.NonNumericColumn, $"Pair '{pair.Name}' ({target.Describe}): column {names[i]} is {typeName}, not a number.");
             }
+
+            if (!isWindow)
+            {
+                numeric[i] = internalName == "numeric";
+            }
         }
+
+        return new PostgresPairSql(target, from, to, numeric[0], numeric[1]);
     }
 
+    /// <summary>
+    /// The push-down figures. The plain aggregate runs first, behind a savepoint in the same round trip; when
+    /// float8 arithmetic overflows on it (values near 1e300 square beyond float8's range, SQLSTATE 22003), or
+    /// its figures cannot be trusted (<see cref="Rescaling.Needed"/>: corr() silently losing r to the overflow
+    /// of Sxx·Syy, or a small spread on a huge offset), the figures are computed again on rescaled values: one
+    /// more scan for the columns' ranges, one for the rescaled aggregate. The common case stays one scan.
+    /// </summary>
     private static async Task<SourceFigures> ReadFiguresAsync(NpgsqlConnection connection, PostgresPairSql sql, CancellationToken ct)
     {
-        var (text, parameters) = sql.Aggregate();
+        const string Savepoint = "driftwatch_figures";
+        try
+        {
+            var figures = await ReadAggregateAsync(connection, sql.Aggregate(), "SAVEPOINT " + Savepoint, ct);
+            if (!Rescaling.Needed(figures))
+            {
+                return figures;
+            }
+        }
+        catch (PostgresException e) when (e.SqlState == PostgresErrorCodes.NumericValueOutOfRange)
+        {
+            await ExecuteAsync(connection, "ROLLBACK TO SAVEPOINT " + Savepoint, _ => { }, ct);
+        }
+
+        var rescaling = await ReadRescalingAsync(connection, sql, ct);
+        return rescaling.Restore(await ReadAggregateAsync(connection, sql.Aggregate(rescaling), null, ct));
+    }
+
+    private static async Task<SourceFigures> ReadAggregateAsync(
+        NpgsqlConnection connection, (string Sql, PositionalParameters Parameters) aggregate, string? before, CancellationToken ct)
+    {
         await using var batch = new NpgsqlBatch(connection);
-        batch.BatchCommands.Add(parameters.Command(text));
+        if (before is not null)
+        {
+            batch.BatchCommands.Add(new NpgsqlBatchCommand(before));
+        }
+
+        batch.BatchCommands.Add(aggregate.Parameters.Command(aggregate.Sql));
         await using var reader = await batch.ExecuteReaderAsync(ct);
         await reader.ReadAsync(ct);
         return new SourceFigures(
@@ -176,6 +243,16 @@ internal sealed class PostgresPairSource : IPairSource, IAsyncDisposable
             FiniteOrNull(reader, 7),
             FiniteOrNull(reader, 8),
             FiniteOrNull(reader, 9));
+    }
+
+    private static async Task<Rescaling> ReadRescalingAsync(NpgsqlConnection connection, PostgresPairSql sql, CancellationToken ct)
+    {
+        var (text, parameters) = sql.Range();
+        await using var batch = new NpgsqlBatch(connection);
+        batch.BatchCommands.Add(parameters.Command(text));
+        await using var reader = await batch.ExecuteReaderAsync(ct);
+        await reader.ReadAsync(ct);
+        return Rescaling.For(FiniteOrNull(reader, 0), FiniteOrNull(reader, 1), FiniteOrNull(reader, 2), FiniteOrNull(reader, 3));
     }
 
     /// <summary>The planner's row estimate, or null when the relation cannot be table-sampled (a view, a foreign table).</summary>

@@ -6,9 +6,18 @@ namespace DriftWatch.Sources.Postgres;
 /// The SQL of one pair's check. Values are cast to float8 only after the columns were checked to be
 /// numeric, so a text column is reported, not coerced. A value is usable when both x and y are finite:
 /// in PostgreSQL NaN sorts above +Infinity, so <c>v &gt; '-Infinity' AND v &lt; 'Infinity'</c> is exactly "finite".
+/// A <c>numeric</c> value beyond float8's range (|v| above 1.8e308) would fail the whole cast; it is read as
+/// ±Infinity instead, so it is counted with the non-finite values, and one below float8's smallest
+/// subnormal is read as 0 (its own rounding). Set <paramref name="numericX"/>/<paramref name="numericY"/>
+/// from the column types (<see cref="Probe"/>), since the guard costs a numeric comparison per value.
 /// </summary>
-internal sealed class PostgresPairSql(PairTarget target, DateTimeOffset? windowFrom, DateTimeOffset? windowTo)
+internal sealed class PostgresPairSql(PairTarget target, DateTimeOffset? windowFrom, DateTimeOffset? windowTo, bool numericX = false, bool numericY = false)
 {
+    // Above float8's largest value (1.7976931348623157e308) but below the point where the cast rounds to
+    // infinity and fails; below the smallest subnormal (4.9e-324) the cast fails on underflow.
+    private const string Float8Max = "1.7976931348623158e308";
+    private const string Float8Tiny = "2.5e-324";
+
     /// <summary>
     /// Zero rows, but the server resolves the relation, the columns and the filter, and reports their types.
     /// Without the window condition, which would fail on a window column of the wrong type before we can name it.
@@ -20,25 +29,53 @@ internal sealed class PostgresPairSql(PairTarget target, DateTimeOffset? windowF
         return ($"SELECT {Column(target.X)}, {Column(target.Y)}{window} FROM {From()}{Where(p, withWindow: false)} LIMIT 0", p);
     }
 
-    /// <summary>Exact counts and linear figures over the whole window, in one scan.</summary>
-    public (string Sql, PositionalParameters Parameters) Aggregate()
+    /// <summary>
+    /// Exact counts and linear figures over the whole window, in one scan. With <paramref name="rescaling"/> the
+    /// aggregates run on x·2^XExponent − XShift and the like for y (see <see cref="Rescaling"/>), for values
+    /// float8's aggregates cannot take as they are.
+    /// </summary>
+    public (string Sql, PositionalParameters Parameters) Aggregate(Rescaling? rescaling = null)
     {
         var p = new PositionalParameters();
+        var (x, y) = rescaling is null
+            ? ("d.x", "d.y")
+            : ($"({Scaled("d.x", rescaling.XFactor, rescaling.XFloor, p)} - {p.Add(rescaling.XShift, NpgsqlDbType.Double)})",
+               $"({Scaled("d.y", rescaling.YFactor, rescaling.YFloor, p)} - {p.Add(rescaling.YShift, NpgsqlDbType.Double)})");
         var sql = $"""
             SELECT count(*) AS row_count,
                    count(*) FILTER (WHERE d.x IS NULL OR d.y IS NULL) AS null_count,
                    count(*) FILTER (WHERE d.ok) AS used_count,
-                   corr(d.y, d.x) FILTER (WHERE d.ok),
-                   regr_slope(d.y, d.x) FILTER (WHERE d.ok),
-                   regr_intercept(d.y, d.x) FILTER (WHERE d.ok),
-                   avg(d.x) FILTER (WHERE d.ok),
-                   avg(d.y) FILTER (WHERE d.ok),
-                   var_samp(d.x) FILTER (WHERE d.ok),
-                   var_samp(d.y) FILTER (WHERE d.ok)
-            FROM (SELECT v.x, v.y,
-                         (v.x > '-Infinity'::float8 AND v.x < 'Infinity'::float8 AND v.y > '-Infinity'::float8 AND v.y < 'Infinity'::float8) AS ok
-                  FROM ({Values(p, null)}) v) d
+                   corr({y}, {x}) FILTER (WHERE d.ok),
+                   regr_slope({y}, {x}) FILTER (WHERE d.ok),
+                   regr_intercept({y}, {x}) FILTER (WHERE d.ok),
+                   avg({x}) FILTER (WHERE d.ok),
+                   avg({y}) FILTER (WHERE d.ok),
+                   var_samp({x}) FILTER (WHERE d.ok),
+                   var_samp({y}) FILTER (WHERE d.ok)
+            FROM {Usable(p)} d
             """;
+        return (sql, p);
+    }
+
+    /// <summary>The smallest and largest x and y over the usable rows of the window: what <see cref="Rescaling"/> needs.</summary>
+    public (string Sql, PositionalParameters Parameters) Range()
+    {
+        var p = new PositionalParameters();
+        return ($"SELECT min(d.x) FILTER (WHERE d.ok), max(d.x) FILTER (WHERE d.ok), min(d.y) FILTER (WHERE d.ok), max(d.y) FILTER (WHERE d.ok) FROM {Usable(p)} d", p);
+    }
+
+    /// <summary>
+    /// The <paramref name="count"/> usable rows of the window farthest from y = a + b·x, farthest first, in one
+    /// scan; the distance is computed so that it cannot overflow (see <see cref="LineDistance"/>).
+    /// </summary>
+    public (string Sql, PositionalParameters Parameters) Farthest(LineDistance line, int count)
+    {
+        ArgumentNullException.ThrowIfNull(line);
+        var p = new PositionalParameters();
+        var y = Scaled("d.y", line.Factor, line.YFloor, p);
+        var x = Scaled("d.x", line.ScaledSlope, line.XFloor, p);
+        var distance = $"abs({y} - {p.Add(line.ScaledIntercept, NpgsqlDbType.Double)} - {x})";
+        var sql = $"SELECT d.x, d.y FROM {Usable(p)} d WHERE d.ok ORDER BY {distance} DESC LIMIT {p.Add(count, NpgsqlDbType.Integer)}";
         return (sql, p);
     }
 
@@ -70,8 +107,30 @@ internal sealed class PostgresPairSql(PairTarget target, DateTimeOffset? windowF
         return (sql, p);
     }
 
+    /// <summary>The window's values as float8, each row marked usable (<c>ok</c>) when both are finite.</summary>
+    private string Usable(PositionalParameters p) => $"""
+        (SELECT v.x, v.y,
+                (v.x > '-Infinity'::float8 AND v.x < 'Infinity'::float8 AND v.y > '-Infinity'::float8 AND v.y < 'Infinity'::float8) AS ok
+         FROM ({Values(p, null)}) v)
+        """;
+
     private string Values(PositionalParameters p, string? tablesample) =>
-        $"SELECT {Column(target.X)}::float8 AS x, {Column(target.Y)}::float8 AS y FROM {From()}{tablesample}{Where(p)}";
+        $"SELECT {Float8(Column(target.X), numericX)} AS x, {Float8(Column(target.Y), numericY)} AS y FROM {From()}{tablesample}{Where(p)}";
+
+    private static string Float8(string column, bool numeric) => numeric
+        ? $"""
+          CASE WHEN {column} IS NULL THEN NULL
+               WHEN {column} = 'NaN'::numeric THEN 'NaN'::float8
+               WHEN {column} > {Float8Max} THEN 'Infinity'::float8
+               WHEN {column} < -{Float8Max} THEN '-Infinity'::float8
+               WHEN abs({column}) < {Float8Tiny} THEN 0::float8
+               ELSE {column}::float8 END
+          """
+        : column + "::float8";
+
+    /// <summary>v·factor, with |v| below <paramref name="floor"/> read as 0 (PostgreSQL fails a multiplication that underflows).</summary>
+    private static string Scaled(string value, double factor, double floor, PositionalParameters p) =>
+        $"(CASE WHEN abs({value}) < {p.Add(floor, NpgsqlDbType.Double)} THEN 0::float8 ELSE {value} * {p.Add(factor, NpgsqlDbType.Double)} END)";
 
     private string From() => target.Table is { } table ? table.Quoted : $"({target.Query}) AS q";
 

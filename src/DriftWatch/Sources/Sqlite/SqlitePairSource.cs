@@ -60,6 +60,42 @@ internal sealed class SqlitePairSource : IPairSource, IDisposable
         }, cancellationToken);
     }
 
+    public Task<IReadOnlyList<DrivingRow>> FarthestFromLineAsync(
+        PairConfig pair, DateTimeOffset now, double intercept, double slope, int count, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(pair);
+        LineDistance.CheckCount(count);
+        var line = LineDistance.For(intercept, slope);
+        var target = PairTarget.From(pair);
+        return InSessionAsync(pair, target, session =>
+        {
+            CheckColumns(session, pair, target);
+            var window = pair.Window is null ? null : ResolveWindow(session, target, now - pair.Window.Last, now);
+            var rows = new List<DrivingRow>(count);
+            if (pair.Window is not null && window is null)
+            {
+                return (IReadOnlyList<DrivingRow>)rows;
+            }
+
+            using var command = session.Command(new SqlitePairSql(target, window is not null).Farthest(), checkSingle: true);
+            Bind(command, window, null);
+            command.Parameters.AddWithValue("@f", line.Factor);
+            command.Parameters.AddWithValue("@a", line.ScaledIntercept);
+            command.Parameters.AddWithValue("@b", line.ScaledSlope);
+            command.Parameters.AddWithValue("@yfloor", line.YFloor);
+            command.Parameters.AddWithValue("@xfloor", line.XFloor);
+            command.Parameters.AddWithValue("@count", count);
+            using var reader = command.ExecuteReader();
+            while (reader.Read())
+            {
+                double x = reader.GetDouble(0), y = reader.GetDouble(1);
+                rows.Add(new DrivingRow(x, y, line.Residual(x, y)));
+            }
+
+            return (IReadOnlyList<DrivingRow>)rows;
+        }, cancellationToken);
+    }
+
     public Task ValidateAsync(PairConfig pair, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(pair);
@@ -173,18 +209,55 @@ internal sealed class SqlitePairSource : IPairSource, IDisposable
         return SqliteWindow.For(reader.GetString(0), reader.IsDBNull(1) ? null : reader.GetString(1), from, to);
     }
 
+    /// <summary>
+    /// The push-down figures; when the sums come out infinite (values near 1e300, whose squares exceed
+    /// float64) or the spread is tiny against the magnitude (<see cref="Rescaling.Needed"/>), they are computed
+    /// again on rescaled values, after one more scan for the columns' ranges. The common case stays one statement.
+    /// </summary>
     private static SourceFigures ReadFigures(Session session, SqlitePairSql sql, SqliteWindow? window)
     {
-        using var command = session.Command(sql.Aggregate(), checkSingle: true);
+        var (figures, overflowed) = ReadAggregate(session, sql, window, null);
+        if (!overflowed && !Rescaling.Needed(figures))
+        {
+            return figures;
+        }
+
+        Rescaling rescaling;
+        using (var command = session.Command(sql.Range(), checkSingle: true))
+        {
+            Bind(command, window, null);
+            using var reader = command.ExecuteReader();
+            reader.Read();
+            double? Get(int i) => reader.IsDBNull(i) ? null : reader.GetDouble(i);
+            rescaling = Rescaling.For(Get(0), Get(1), Get(2), Get(3));
+        }
+
+        return rescaling.Restore(ReadAggregate(session, sql, window, rescaling).Figures);
+    }
+
+    private static (SourceFigures Figures, bool Overflowed) ReadAggregate(Session session, SqlitePairSql sql, SqliteWindow? window, Rescaling? rescaling)
+    {
+        using var command = session.Command(sql.Aggregate(rescaled: rescaling is not null), checkSingle: true);
         Bind(command, window, null);
+        if (rescaling is not null)
+        {
+            command.Parameters.AddWithValue("@fx", rescaling.XFactor);
+            command.Parameters.AddWithValue("@fy", rescaling.YFactor);
+            command.Parameters.AddWithValue("@sx", rescaling.XShift);
+            command.Parameters.AddWithValue("@sy", rescaling.YShift);
+        }
+
         using var reader = command.ExecuteReader();
         reader.Read();
         var n = reader.GetInt64(2);
         double? Get(int i) => reader.IsDBNull(i) ? null : reader.GetDouble(i);
         var (mx, my, sxx, syy, sxy) = (Get(3), Get(4), Get(5), Get(6), Get(7));
+        // SQLite turns an overflowing sum into Infinity and an Infinity − Infinity into NULL.
+        bool overflowed = n > 0 && new[] { mx, my, sxx, syy, sxy }.Any(v => v is not { } d || !double.IsFinite(d));
         double? slope = sxx is > 0 && sxy is { } p ? p / sxx : null;
-        double? r = sxx is > 0 && syy is > 0 && sxy is { } q ? Math.Clamp(q / Math.Sqrt(sxx.Value * syy.Value), -1.0, 1.0) : null;
-        return new SourceFigures(
+        // √Sxx·√Syy rather than √(Sxx·Syy): the product overflows long before either sum does.
+        double? r = sxx is > 0 && syy is > 0 && sxy is { } q ? Math.Clamp(q / (Math.Sqrt(sxx.Value) * Math.Sqrt(syy.Value)), -1.0, 1.0) : null;
+        var figures = new SourceFigures(
             reader.GetInt64(0),
             n,
             reader.GetInt64(1),
@@ -195,6 +268,7 @@ internal sealed class SqlitePairSource : IPairSource, IDisposable
             my,
             n >= 2 && sxx is { } vx ? vx / (n - 1) : null,
             n >= 2 && syy is { } vy ? vy / (n - 1) : null);
+        return (figures, overflowed);
     }
 
     private static (PairedSample Sample, string Method) ReadSample(Session session, SqlitePairSql sql, SqliteWindow? window, SamplePlan plan, PairConfig pair, PairTarget target)

@@ -28,9 +28,11 @@ internal sealed class SqlitePairSql(PairTarget target, bool windowed)
     /// <summary>
     /// Counts, means and centred sums of squares and products in one statement: two passes over the window
     /// (means first, then centred sums), the textbook remedy for the cancellation of raw sums of squares.
+    /// With <paramref name="rescaled"/> the values are x·@fx − @sx and y·@fy − @sy (see <see cref="Rescaling"/>):
+    /// SQLite does not fail on overflow, its sums of squares of values near 1e300 just become infinite.
     /// </summary>
-    public string Aggregate() => $"""
-        WITH d AS (SELECT x, y, {Usable} AS ok, (x IS NULL OR y IS NULL) AS missing FROM ({Values()})),
+    public string Aggregate(bool rescaled = false) => $"""
+        WITH d AS ({(rescaled ? $"SELECT x * @fx - @sx AS x, y * @fy - @sy AS y, ok, missing FROM ({Marked()})" : Marked())}),
              m AS (SELECT count(*) AS n_rows, coalesce(sum(missing), 0) AS n_null, coalesce(sum(ok), 0) AS n_used,
                           avg(CASE WHEN ok THEN x END) AS mx, avg(CASE WHEN ok THEN y END) AS my FROM d)
         SELECT m.n_rows, m.n_null, m.n_used, m.mx, m.my,
@@ -38,9 +40,24 @@ internal sealed class SqlitePairSql(PairTarget target, bool windowed)
         FROM m LEFT JOIN d ON d.ok
         """;
 
+    /// <summary>The smallest and largest x and y over the usable rows, as reals.</summary>
+    public string Range() => $"SELECT min(x * 1.0), max(x * 1.0), min(y * 1.0), max(y * 1.0) FROM ({Values()}) WHERE {Usable}";
+
+    /// <summary>
+    /// The @count usable rows farthest from the line, farthest first, in one scan; the distance is
+    /// |y·@f − @a − @b·x| with the factors of <see cref="LineDistance"/> (@yfloor, @xfloor as there).
+    /// </summary>
+    public string Farthest() => $"""
+        SELECT x, y FROM ({Values()}) WHERE {Usable}
+        ORDER BY abs((CASE WHEN abs(y * 1.0) < @yfloor THEN 0.0 ELSE y * @f END) - @a - (CASE WHEN abs(x * 1.0) < @xfloor THEN 0.0 ELSE @b * x END)) DESC
+        LIMIT @count
+        """;
+
     public string All() => Values();
 
     public string Random() => Values() + " ORDER BY random() LIMIT @rows";
+
+    private string Marked() => $"SELECT x, y, {Usable} AS ok, (x IS NULL OR y IS NULL) AS missing FROM ({Values()})";
 
     private string Values() => $"SELECT {Column(target.X)} AS x, {Column(target.Y)} AS y FROM {From()}{Where()}";
 
