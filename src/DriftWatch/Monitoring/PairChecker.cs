@@ -36,10 +36,12 @@ internal sealed class PairChecker(
         {
             var source = config.FindSource(pair.Source)
                 ?? throw new SourceException(SourceFailure.QueryError, $"pair '{pair.Name}': source '{pair.Source}' is not configured");
-            sampled = await sources.Create(source).SampleAsync(pair, startedAt, cancellationToken);
+            var adapter = sources.Create(source);
+            sampled = await adapter.SampleAsync(pair, startedAt, cancellationToken);
             profile = Profiler.Profile(sampled.Sample, pair.Thresholds);
             baseline = await baselines.GetOrBuildAsync(pair, startedAt, cancellationToken);
             findings = FindingEngine.Assess(profile, sampled.Sample, sampled.Figures, baseline, pair.Expect, pair.Thresholds, pair.X, pair.Y, startedAt);
+            findings = await NameDrivingRowsAsync(adapter, pair, profile, findings, startedAt, cancellationToken);
         }
         catch (OperationCanceledException) when (cancellationToken.IsCancellationRequested)
         {
@@ -95,5 +97,29 @@ internal sealed class PairChecker(
         }
 
         return new PairCheckResult(pair, runId, status, error, run.Profile, run.Findings, startedAt, finishedAt, baseline is not null);
+    }
+
+    /// <summary>
+    /// When rows outside the sample drive the exact line, asks the source for the handful of rows farthest from the
+    /// sample's line (the exact line is pulled through them, so it would hide them) and names them in the finding.
+    /// </summary>
+    private static async Task<IReadOnlyList<Finding>> NameDrivingRowsAsync(
+        IPairSource source, PairConfig pair, RelationshipProfile profile, IReadOnlyList<Finding> findings, DateTimeOffset now, CancellationToken cancellationToken)
+    {
+        var hidden = findings.FirstOrDefault(f => f.Kind == FindingKind.HiddenRowsDriveLine);
+        if (hidden is null || profile.Intercept is not { } a || profile.Slope is not { } b)
+        {
+            return findings;
+        }
+
+        var rows = await source.FarthestFromLineAsync(pair, now, a, b, IPairSource.DefaultDrivingRows, cancellationToken);
+        if (rows.Count == 0)
+        {
+            return findings;
+        }
+
+        var listed = string.Join("; ", rows.Select(r => $"{pair.X} = {Output.Readable.Number(r.X)}, {pair.Y} = {Output.Readable.Number(r.Y)}"));
+        var named = hidden with { Message = $"{hidden.Message} Rows farthest from the sample's line: {listed}." };
+        return [.. findings.Select(f => ReferenceEquals(f, hidden) ? named : f)];
     }
 }
