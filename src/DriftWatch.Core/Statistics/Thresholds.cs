@@ -23,6 +23,7 @@ public sealed record Thresholds
     public const double DefaultLeverageHat = 0.5;
     public const double DefaultStrongRelationshipR = 0.5;
     public const double DefaultMinKsStatistic = 0.1;
+    public const int DefaultMinUsableRows = 10;
 
     /// <summary>Significance level for every hypothesis test in a comparison.</summary>
     public double Alpha { get; init; } = DefaultAlpha;
@@ -77,6 +78,12 @@ public sealed record Thresholds
 
     /// <summary>Minimum Kolmogorov–Smirnov distance D for a marginal shift, so huge samples do not alert on trivia.</summary>
     public double MinKsStatistic { get; init; } = DefaultMinKsStatistic;
+
+    /// <summary>
+    /// Fewer usable rows than this and the check cannot measure the relationship (its run is unmeasurable, not
+    /// "ok"): Pearson's test has n − 2 degrees of freedom, and with a handful of rows every figure is noise.
+    /// </summary>
+    public int MinUsableRows { get; init; } = DefaultMinUsableRows;
 
     public static Thresholds Default { get; } = new();
 }
