@@ -67,6 +67,7 @@ public sealed class ScatterPlotRendererTests
         Assert.Contains("no sampled points to show", SvgText.Of(svg));
         Assert.Contains("first_col", SvgText.Of(svg));
     }
+
     [Fact]
     public void RenderPng_UnmeasurableRunWithAConstantX_RendersItsPointsWithoutALine()
     {
