@@ -34,6 +34,7 @@ internal sealed class PairChecker(
         StoredBaseline? baseline = null;
         string? error = null;
         string? unmeasurable = null;
+        var hasStoredBaseline = false;
         try
         {
             var source = config.FindSource(pair.Source)
@@ -48,8 +49,10 @@ internal sealed class PairChecker(
             }
             else
             {
-                // Nothing was measured, so nothing is compared and no baseline is built from (or for) this run.
+                // Nothing was measured, so nothing is compared and no baseline is built from (or for) this run;
+                // whether one is stored is still worth saying.
                 logger.LogWarning("Check of {Pair} could not measure: {Reason}", pair.Name, unmeasurable);
+                hasStoredBaseline = await store.GetBaselineAsync(pair.Name, cancellationToken) is not null;
             }
         }
         catch (OperationCanceledException) when (cancellationToken.IsCancellationRequested)
@@ -104,6 +107,6 @@ internal sealed class PairChecker(
                 pair.Name, (long)(finishedAt - startedAt).TotalMilliseconds, profile!.NUsed, profile.PearsonR, profile.Shape, findings.Count);
         }
 
-        return new PairCheckResult(pair, runId, status, run.Error, run.Profile, run.Findings, startedAt, finishedAt, baseline is not null);
+        return new PairCheckResult(pair, runId, status, run.Error, run.Profile, run.Findings, startedAt, finishedAt, baseline is not null || hasStoredBaseline);
     }
 }

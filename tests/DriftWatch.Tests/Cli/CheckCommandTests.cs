@@ -165,6 +165,7 @@ public sealed class CheckCommandTests : IDisposable
         Assert.Equal("No rows in the window: there is nothing to measure of pallets against crew_hours.", pair.GetProperty("error").GetString());
         Assert.Equal(0, pair.GetProperty("profile").GetProperty("n_rows").GetInt32());
         Assert.Equal(0, pair.GetProperty("findings").GetArrayLength());
+        Assert.True(pair.GetProperty("has_baseline").GetBoolean(), "the stored baseline is still there, only not compared");
 
         var alerts = await CliRun.Of("alerts", "list", "--config", ConfigPath, "--format", "json");
         using var list = JsonDocument.Parse(alerts.Out);
