@@ -12,10 +12,11 @@ namespace DriftWatch.Core.Alerting;
 /// <see cref="AlertingConfig.WarningPersistence"/> (warning) successful runs in a row. Info never fires: it stays
 /// pending, for the dashboard.</item>
 /// <item>check_failing is critical (a pair that cannot be checked is watched by nobody) and fires after
-/// <see cref="AlertingConfig.CheckFailingAfter"/> failed checks in a row; that count is its persistence.</item>
+/// <see cref="AlertingConfig.CheckFailingAfter"/> failed or unmeasurable checks in a row; that count is its persistence.</item>
 /// <item>An info sighting of an alert that already fired keeps it open at its severity, without a notice: a known state.</item>
 /// <item>A successful run without the kind resolves it; a recovery notice goes out only for alerts people were told about.</item>
-/// <item>A failed check leaves the pair's other alerts as they were: nothing was learnt about them.</item>
+/// <item>A failed or unmeasurable check leaves the pair's other alerts as they were: nothing was learnt about them.
+/// (An empty window must never close an alert: "no rows" is not "the fault went away".)</item>
 /// <item>Re-notify: a firing, unacknowledged alert confirmed by this run whose last notice is at least
 /// <see cref="AlertingConfig.Renotify"/> old. Escalation (warning to critical while firing) notifies at once,
 /// acknowledged or not, because it is news.</item>

@@ -25,6 +25,7 @@ public sealed record Thresholds
     public const double DefaultStrongRelationshipR = 0.5;
     public const double DefaultMinKsStatistic = 0.1;
     public const double DefaultMinDerivedShare = 0.2;
+    public const int DefaultMinUsableRows = 10;
 
     /// <summary>Significance level for every hypothesis test in a comparison.</summary>
     public double Alpha { get; init; } = DefaultAlpha;
@@ -94,6 +95,10 @@ public sealed record Thresholds
     /// baseline runs' (absolute), and be at least this now.
     /// </summary>
     public double MinDerivedShare { get; init; } = DefaultMinDerivedShare;
+    /// Fewer usable rows than this and the check cannot measure the relationship (its run is unmeasurable, not
+    /// "ok"): Pearson's test has n − 2 degrees of freedom, and with a handful of rows every figure is noise.
+    /// </summary>
+    public int MinUsableRows { get; init; } = DefaultMinUsableRows;
 
     public static Thresholds Default { get; } = new();
 }

@@ -23,7 +23,7 @@ internal static class CheckCommand
         var command = new Command(
             "check",
             "Check every watched pair (or one) now, record the runs, evaluate alerts and send what is due. " +
-            "Exit code 0: healthy; 1: a finding at warning or worse; 2: configuration error; 3: a check failed to run.\n\n" +
+            "Exit code 0: healthy; 1: a finding at warning or worse; 2: configuration error; 3: a check failed to run or had nothing to measure.\n\n" +
             "Example (a pipeline step after the nightly load): driftwatch check --config /etc/driftwatch/driftwatch.yaml --format json")
         {
             config, pair, format, verbose,
@@ -45,9 +45,12 @@ internal static class CheckCommand
 
             await using var services = await CliServices.StartAsync(loaded, parse.GetValue(verbose), ct);
             var progress = new ImmediateProgress<PairCheckResult>(r => console.Error.WriteLine(
-                r.Status == RunStatus.Failed
-                    ? $"  failed  {r.Pair.Name}: {r.Error}"
-                    : $"  checked {r.Pair.Name} ({r.Findings.Count} finding{(r.Findings.Count == 1 ? "" : "s")})"));
+                r.Status switch
+                {
+                    RunStatus.Failed => $"  failed  {r.Pair.Name}: {r.Error}",
+                    RunStatus.Unmeasurable => $"  unmeasurable {r.Pair.Name}: {r.Error}",
+                    _ => $"  checked {r.Pair.Name} ({r.Findings.Count} finding{(r.Findings.Count == 1 ? "" : "s")})",
+                }));
             console.Error.WriteLine($"Checking {pairs.Count} pair{(pairs.Count == 1 ? "" : "s")}…");
             var pass = await services.GetRequiredService<CheckPass>().RunAsync(pairs, progress, ct);
             var results = pass.Checks;
@@ -72,10 +75,13 @@ internal static class CheckCommand
         return command;
     }
 
-    /// <summary>A check that could not run outranks findings: the pair's state is unknown.</summary>
+    /// <summary>
+    /// A check that could not run, or ran and had nothing to measure, outranks findings: the pair's state is unknown.
+    /// An empty window must never pass a pipeline step as healthy.
+    /// </summary>
     internal static int ExitCodeOf(IReadOnlyList<PairCheckResult> results)
     {
-        if (results.Any(r => r.Status == RunStatus.Failed))
+        if (results.Any(r => r.Status is RunStatus.Failed or RunStatus.Unmeasurable))
         {
             return ExitCodes.RunFailures;
         }

@@ -14,25 +14,30 @@ internal static class CheckOutput
     {
         var table = new Table().Border(TableBorder.Rounded).Title("[bold]DriftWatch check[/]");
         table.AddColumns("pair", "status", "n", "r", "ρ", "slope", "shape", "worst finding");
-        foreach (var r in results.OrderByDescending(r => r.Status == RunStatus.Failed).ThenByDescending(r => r.WorstSeverity ?? (Severity)(-1)))
+        foreach (var r in results.OrderByDescending(r => r.Status != RunStatus.Succeeded).ThenByDescending(r => r.WorstSeverity ?? (Severity)(-1)))
         {
             var p = r.Profile;
             var worst = r.Findings.OrderByDescending(f => f.Severity).FirstOrDefault();
             table.AddRow(
                 Markup.Escape(r.Pair.Name),
-                r.Status == RunStatus.Failed ? "[red]failed[/]" : r.HasBaseline ? "ok" : "ok [grey](no baseline yet)[/]",
+                StatusMarkup(r),
                 Readable.Count(p?.NUsed),
                 Readable.Number(p?.PearsonR),
                 Readable.Number(p?.SpearmanRho),
                 Readable.Number(p?.Slope),
                 p is null ? "" : JsonContract.Name(p.Shape),
-                worst is null ? (r.Error is null ? "[green]none[/]" : "[red]check failed[/]") : SeverityStyle.Markup(worst.Severity) + " " + Markup.Escape(JsonContract.Name(worst.Kind)));
+                worst is null ? r.Status switch
+                {
+                    RunStatus.Failed => "[red]check failed[/]",
+                    RunStatus.Unmeasurable => "[red]nothing measured[/]",
+                    _ => "[green]none[/]",
+                } : SeverityStyle.Markup(worst.Severity) + " " + Markup.Escape(JsonContract.Name(worst.Kind)));
         }
 
         console.Write(table);
         foreach (var r in results.Where(r => r.Error is not null))
         {
-            console.MarkupLine($"[red]failed[/] [bold]{Markup.Escape(r.Pair.Name)}[/]: {Markup.Escape(r.Error!)}");
+            console.MarkupLine($"{StatusMarkup(r)} [bold]{Markup.Escape(r.Pair.Name)}[/]: {Markup.Escape(r.Error!)}");
         }
 
         foreach (var r in results.Where(r => r.Findings.Count > 0))
@@ -42,12 +47,20 @@ internal static class CheckOutput
         }
     }
 
+    /// <summary>"ok" only for a check that measured something; "ok (no baseline yet)" while there is nothing to compare with.</summary>
+    private static string StatusMarkup(PairCheckResult r) => r.Status switch
+    {
+        RunStatus.Failed => "[red]failed[/]",
+        RunStatus.Unmeasurable => "[red]unmeasurable[/]",
+        _ => r.HasBaseline ? "ok" : "ok [grey](no baseline yet)[/]",
+    };
+
     public static CheckReportJson ToJson(IReadOnlyList<PairCheckResult> results, int exitCode) => new(
         exitCode,
         [.. results.Select(r => new CheckPairJson(
             r.Pair.Name,
             r.Pair.Source,
-            r.Status == RunStatus.Succeeded ? "succeeded" : "failed",
+            JsonContract.Name(r.Status),
             r.Error,
             r.RunId == 0 ? null : r.RunId,
             r.StartedAt,

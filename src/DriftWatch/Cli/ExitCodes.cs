@@ -12,6 +12,9 @@ internal static class ExitCodes
     /// <summary>Bad command line, configuration, missing file or column: nothing was checked.</summary>
     public const int UsageError = 2;
 
-    /// <summary>Some checks could not run (a source unreachable, a query failing).</summary>
+    /// <summary>
+    /// Some checks could not run (a source unreachable, a query failing) or had nothing to measure (no rows, too few
+    /// usable rows, a constant column): either way the pair's state is unknown.
+    /// </summary>
     public const int RunFailures = 3;
 }

@@ -61,13 +61,18 @@ internal static class HistoryCommand
                 var p = run.Profile;
                 table.AddRow(
                     run.StartedAt.UtcDateTime.ToString("yyyy-MM-dd HH:mm:ss", CultureInfo.InvariantCulture),
-                    run.Status == RunStatus.Failed ? "[red]failed[/]" : "ok",
+                    run.Status switch
+                    {
+                        RunStatus.Failed => "[red]failed[/]",
+                        RunStatus.Unmeasurable => "[red]unmeasurable[/]",
+                        _ => "ok",
+                    },
                     Readable.Count(p?.NUsed),
                     Readable.Number(p?.PearsonR),
                     Readable.Number(p?.SpearmanRho),
                     Readable.Number(p?.Slope),
                     p is null ? "" : JsonContract.Name(p.Shape),
-                    run.Status == RunStatus.Failed
+                    run.Status != RunStatus.Succeeded
                         ? "[red]" + Markup.Escape(run.Error ?? "") + "[/]"
                         : string.Join(", ", run.Findings.OrderByDescending(f => f.Severity).Select(f => SeverityStyle.Markup(f.Severity) + " " + Markup.Escape(JsonContract.Name(f.Kind)))));
             }
@@ -82,7 +87,7 @@ internal static class HistoryCommand
         run.Id,
         run.StartedAt,
         run.FinishedAt,
-        run.Status == RunStatus.Succeeded ? "succeeded" : "failed",
+        JsonContract.Name(run.Status),
         run.Error,
         run.SampleMethod,
         run.Profile is null ? null : JsonContract.ToJson(run.Profile),

@@ -20,8 +20,11 @@ internal static class ProfileAnalysis
         ArgumentNullException.ThrowIfNull(labels);
         var currentProfile = Profiler.Profile(current, thresholds);
         var baselineProfile = baseline is null ? null : Profiler.Profile(baseline, thresholds);
-        var findings = FindingEngine.Assess(
-            currentProfile, current, baselineProfile, baseline, expectation, thresholds, labels.XName, labels.YName);
-        return new ProfileReport(currentProfile, baselineProfile, findings, labels);
+        // As in a check: an extract with nothing to measure is reported as such, never compared.
+        var unmeasurable = Measurability.Assess(currentProfile, null, thresholds, labels.XName, labels.YName);
+        var findings = unmeasurable is not null
+            ? []
+            : FindingEngine.Assess(currentProfile, current, baselineProfile, baseline, expectation, thresholds, labels.XName, labels.YName);
+        return new ProfileReport(currentProfile, baselineProfile, findings, labels, unmeasurable);
     }
 }

@@ -53,7 +53,7 @@ internal static class ProfileCommand
         var command = new Command(
             "profile",
             "Profile the relationship of two numeric CSV columns, or compare a current extract with a baseline extract. " +
-            "Exit code 0: no finding at warning or worse; 1: at least one; 2: bad input.\n\n" +
+            "Exit code 0: no finding at warning or worse; 1: at least one; 2: bad input; 3: the extract has nothing to measure.\n\n" +
             "Example: driftwatch profile --csv orders_today.csv --x items --y total --baseline-csv orders_march.csv")
         {
             csv, x, y, baselineCsv, baselineX, baselineY, format, expectExact, alpha, outlierT,
@@ -134,6 +134,11 @@ internal static class ProfileCommand
         else
         {
             ProfileView.Render(console.Ansi, report);
+        }
+
+        if (report.Unmeasurable is not null)
+        {
+            return ExitCodes.RunFailures;
         }
 
         return report.Findings.Any(f => f.Severity >= Severity.Warning) ? ExitCodes.Findings : ExitCodes.Healthy;

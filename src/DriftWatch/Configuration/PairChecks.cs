@@ -21,6 +21,14 @@ internal static class PairChecks
             }
         }
 
+        if (pair.Sample.Method != SampleMethod.All && pair.Thresholds.MinUsableRows > pair.Sample.Rows)
+        {
+            // Every check would read fewer rows than it needs and end unmeasurable: a setting that can never work.
+            var where = reader.Has("thresholds") ? "thresholds" : "name";
+            reader.Error(where,
+                $"thresholds.min_usable_rows ({pair.Thresholds.MinUsableRows}) is more than sample.rows ({pair.Sample.Rows}); every check would be unmeasurable");
+        }
+
         if (pair.Baseline.Kind == BaselinePolicyKind.Rolling && pair.Baseline.RollingPeriod > store.PointsRetention)
         {
             var where = reader.Has("baseline") ? "baseline" : "name";

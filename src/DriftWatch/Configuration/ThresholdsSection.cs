@@ -34,7 +34,17 @@ internal static class ThresholdsSection
         ("min_ks_statistic", NumberRange.Fraction, (t, v) => t with { MinKsStatistic = v }),
     ];
 
-    public static IEnumerable<string> Keys => Entries.Select(e => e.Key);
+    /// <summary>The whole-number thresholds (row counts), read as integers so "10.5 rows" is refused.</summary>
+    internal static readonly (string Key, int Min, int Max, Func<Thresholds, int, Thresholds> Set)[] CountEntries =
+    [
+        // At least 3: below that a correlation test has no degrees of freedom. The upper bound only catches typos.
+        ("min_usable_rows", MinUsableRowsFloor, MinUsableRowsCeiling, (t, v) => t with { MinUsableRows = v }),
+    ];
+
+    internal const int MinUsableRowsFloor = 3;
+    internal const int MinUsableRowsCeiling = 1_000_000;
+
+    public static IEnumerable<string> Keys => Entries.Select(e => e.Key).Concat(CountEntries.Select(e => e.Key));
 
     public static Thresholds Read(MappingReader? reader, Thresholds start)
     {
@@ -47,6 +57,14 @@ internal static class ThresholdsSection
         foreach (var (key, range, set) in Entries)
         {
             if (reader.Double(key, range) is { } value)
+            {
+                result = set(result, value);
+            }
+        }
+
+        foreach (var (key, min, max, set) in CountEntries)
+        {
+            if (reader.Int(key, min, max) is { } value)
             {
                 result = set(result, value);
             }

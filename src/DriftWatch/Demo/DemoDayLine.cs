@@ -21,11 +21,12 @@ internal sealed class DemoDayLine
         var results = pass.Checks;
         var newFindings = new List<string>();
         var failed = new List<PairCheckResult>();
+        var unmeasurable = new List<PairCheckResult>();
         foreach (var result in results)
         {
-            if (result.Status == RunStatus.Failed)
+            if (result.Status != RunStatus.Succeeded)
             {
-                failed.Add(result);
+                (result.Status == RunStatus.Failed ? failed : unmeasurable).Add(result);
                 continue;
             }
 
@@ -51,6 +52,11 @@ internal sealed class DemoDayLine
             parts.Add($"{failed.Count} failed: {string.Join(", ", failed.Select(f => f.Pair.Name))}");
         }
 
+        if (unmeasurable.Count > 0)
+        {
+            parts.Add($"{unmeasurable.Count} unmeasurable: {string.Join(", ", unmeasurable.Select(f => f.Pair.Name))}");
+        }
+
         parts.Add(newFindings.Count switch
         {
             0 => "no new findings",
@@ -60,8 +66,8 @@ internal sealed class DemoDayLine
 
         var lines = new List<string> { head + "  " + string.Join("  ", parts) };
 
-        // A failure's reason once, on the day it starts; the following days only name the pair.
-        foreach (var result in failed.Where(f => _failing.Add(f.Pair.Name)))
+        // A failure's (or an empty window's) reason once, on the day it starts; the following days only name the pair.
+        foreach (var result in failed.Concat(unmeasurable).Where(f => _failing.Add(f.Pair.Name)))
         {
             lines.Add($"        {result.Pair.Name}: {result.Error}");
         }

@@ -41,7 +41,7 @@ internal static class DemoSummary
             control.Count,
             falseAlarms.Length,
             control.Sum(r => r.Findings.Count),
-            control.Count(r => r.Status == RunStatus.Failed),
+            control.Count(r => r.Status != RunStatus.Succeeded),
             falseAlarms);
     }
 
@@ -63,7 +63,7 @@ internal static class DemoSummary
         {
             // check_failing is not a finding of a run but the alert lifecycle's verdict on failed runs in a row:
             // it counts when that alert fired; the evidence is the failed check's error.
-            var failed = window.FirstOrDefault(r => r.Status == RunStatus.Failed);
+            var failed = window.FirstOrDefault(r => r.Status is RunStatus.Failed or RunStatus.Unmeasurable);
             if (failed is not null && fired is { } d && d <= fault.Deadline)
             {
                 detected = d;

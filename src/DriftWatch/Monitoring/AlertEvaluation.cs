@@ -112,6 +112,12 @@ internal sealed class AlertEvaluation(
             {
                 outcomes.Add(PairOutcome.Success(pair.Name, run.Id, run.Findings));
             }
+            else if (run.Status == RunStatus.Unmeasurable)
+            {
+                // Nothing was learnt about the relationship: counts toward check_failing, resolves nothing.
+                var failures = await ConsecutiveFailuresAsync(pair, run, cancellationToken);
+                outcomes.Add(PairOutcome.Unmeasurable(pair.Name, run.Id, failures, run.Error ?? "no reason was recorded"));
+            }
             else
             {
                 var failures = await ConsecutiveFailuresAsync(pair, run, cancellationToken);
@@ -136,11 +142,14 @@ internal sealed class AlertEvaluation(
         return result;
     }
 
-    /// <summary>Failed runs in a row ending with <paramref name="run"/>, counted from the history (enough to decide check_failing).</summary>
+    /// <summary>
+    /// Failed or unmeasurable runs in a row ending with <paramref name="run"/>, counted from the history (enough to
+    /// decide check_failing): a pair whose window is empty day after day is as unwatched as one that cannot be read.
+    /// </summary>
     private async Task<int> ConsecutiveFailuresAsync(PairConfig pair, RunRecord run, CancellationToken cancellationToken)
     {
         var lookback = Math.Max(1, config.Alerting.CheckFailingAfter) + 1;
         var recent = await history.GetRunsAsync(pair.Name, lookback, includePoints: false, cancellationToken, before: run.StartedAt.AddMilliseconds(1));
-        return recent.Where(r => r.Id <= run.Id).TakeWhile(r => r.Status == RunStatus.Failed).Count();
+        return recent.Where(r => r.Id <= run.Id).TakeWhile(r => r.Status is RunStatus.Failed or RunStatus.Unmeasurable).Count();
     }
 }

@@ -12,7 +12,8 @@ namespace DriftWatch.Monitoring;
 /// <summary>
 /// One check of one pair: sample → profile → baseline → findings → one store transaction.
 /// The scheduler and the <c>check</c> command both come through here. A failure of the pair is recorded
-/// as a failed run and returned, never thrown: one broken pair never stops the others.
+/// as a failed run and returned, never thrown: one broken pair never stops the others. A window with nothing
+/// to measure (see <see cref="Measurability"/>) is recorded as an unmeasurable run, with the reason as its error.
 /// </summary>
 internal sealed class PairChecker(
     DriftWatchConfig config,
@@ -32,6 +33,8 @@ internal sealed class PairChecker(
         SampledPair? sampled = null;
         StoredBaseline? baseline = null;
         string? error = null;
+        string? unmeasurable = null;
+        var hasStoredBaseline = false;
         try
         {
             var source = config.FindSource(pair.Source)
@@ -39,9 +42,20 @@ internal sealed class PairChecker(
             var adapter = sources.Create(source);
             sampled = await adapter.SampleAsync(pair, startedAt, cancellationToken);
             profile = Profiler.Profile(sampled.Sample, pair.Thresholds);
-            baseline = await baselines.GetOrBuildAsync(pair, startedAt, cancellationToken);
-            findings = FindingEngine.Assess(profile, sampled.Sample, sampled.Figures, baseline, pair.Expect, pair.Thresholds, pair.X, pair.Y, startedAt);
-            findings = await NameDrivingRowsAsync(adapter, pair, profile, findings, startedAt, cancellationToken);
+            unmeasurable = Measurability.Assess(profile, sampled.Figures, pair.Thresholds, pair.X, pair.Y);
+            if (unmeasurable is null)
+            {
+                baseline = await baselines.GetOrBuildAsync(pair, startedAt, cancellationToken);
+                findings = FindingEngine.Assess(profile, sampled.Sample, sampled.Figures, baseline, pair.Expect, pair.Thresholds, pair.X, pair.Y, startedAt);
+                findings = await NameDrivingRowsAsync(adapter, pair, profile, findings, startedAt, cancellationToken);
+            }
+            else
+            {
+                // Nothing was measured, so nothing is compared and no baseline is built from (or for) this run;
+                // whether one is stored is still worth saying.
+                logger.LogWarning("Check of {Pair} could not measure: {Reason}", pair.Name, unmeasurable);
+                hasStoredBaseline = await store.GetBaselineAsync(pair.Name, cancellationToken) is not null;
+            }
         }
         catch (OperationCanceledException) when (cancellationToken.IsCancellationRequested)
         {
@@ -61,17 +75,19 @@ internal sealed class PairChecker(
         }
 
         var finishedAt = time.GetUtcNow();
-        var status = error is null ? RunStatus.Succeeded : RunStatus.Failed;
+        var status = error is not null ? RunStatus.Failed : unmeasurable is not null ? RunStatus.Unmeasurable : RunStatus.Succeeded;
+        // An unmeasurable run keeps its profile and points: the counts (and any rows) are what people need to see.
+        var measured = status != RunStatus.Failed;
         var run = new NewRun(
             pair.Name,
             startedAt,
             finishedAt,
             status,
-            error,
-            status == RunStatus.Succeeded ? profile : null,
+            error ?? unmeasurable,
+            measured ? profile : null,
             status == RunStatus.Succeeded ? findings : [],
             sampled?.Figures,
-            status == RunStatus.Succeeded ? sampled?.Sample : null,
+            measured && sampled?.Sample is { UsedCount: > 0 } points ? points : null,
             sampled?.Method)
         {
             JudgedAgainst = status == RunStatus.Succeeded && baseline is not null ? BaselineSummary.Of(baseline) : null,
@@ -96,7 +112,7 @@ internal sealed class PairChecker(
                 pair.Name, (long)(finishedAt - startedAt).TotalMilliseconds, profile!.NUsed, profile.PearsonR, profile.Shape, findings.Count);
         }
 
-        return new PairCheckResult(pair, runId, status, error, run.Profile, run.Findings, startedAt, finishedAt, baseline is not null);
+        return new PairCheckResult(pair, runId, status, run.Error, run.Profile, run.Findings, startedAt, finishedAt, baseline is not null || hasStoredBaseline);
     }
 
     /// <summary>

@@ -5,11 +5,13 @@ namespace DriftWatch.Output;
 
 /// <summary>What <c>profile</c> found: one extract's profile, optionally a baseline's, and the findings.</summary>
 /// <param name="Labels">Names for people (columns, files); the table shows them, the JSON contract does not.</param>
+/// <param name="Unmeasurable">Why the current extract has nothing to measure (then there are no findings); null when it has.</param>
 internal sealed record ProfileReport(
     RelationshipProfile Current,
     RelationshipProfile? Baseline,
     IReadOnlyList<Finding> Findings,
-    ProfileLabels Labels);
+    ProfileLabels Labels,
+    string? Unmeasurable = null);
 
 /// <param name="CurrentSource">Where the current extract came from ("orders.csv", "bundled sample").</param>
 internal sealed record ProfileLabels(string XName, string YName, string CurrentSource, string? BaselineSource);

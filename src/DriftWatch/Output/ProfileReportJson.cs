@@ -6,4 +6,5 @@ namespace DriftWatch.Output;
 internal sealed record ProfileReportJson(
     [property: JsonPropertyName("current")] ProfileJson Current,
     [property: JsonPropertyName("baseline")] ProfileJson? Baseline,
-    [property: JsonPropertyName("findings")] IReadOnlyList<FindingJson> Findings);
+    [property: JsonPropertyName("findings")] IReadOnlyList<FindingJson> Findings,
+    [property: JsonPropertyName("unmeasurable")] string? Unmeasurable);

@@ -86,6 +86,12 @@ internal static class ProfileView
         }
 
         console.WriteLine();
+        if (report.Unmeasurable is { } reason)
+        {
+            console.MarkupLine($"[red]unmeasurable[/]: {Markup.Escape(reason)} Nothing was compared.");
+            return;
+        }
+
         FindingsView.Render(console, report.Findings);
     }
 

@@ -25,6 +25,13 @@ internal sealed class MigrationRunner(IStoreDatabase database, TimeProvider? tim
             await connection.ExecuteAsync(new CommandDefinition("SELECT pg_advisory_lock(@k)", new { k = AdvisoryLockKey }, cancellationToken: cancellationToken));
         }
 
+        if (database.Dialect == StoreDialect.Sqlite)
+        {
+            // SQLite's way to rebuild a table (004 does): foreign keys off outside the transaction, so dropping the
+            // old table neither cascades into its children nor fails; each script is checked before it commits.
+            await connection.ExecuteAsync(new CommandDefinition("PRAGMA foreign_keys=OFF", cancellationToken: cancellationToken));
+        }
+
         try
         {
             await connection.ExecuteAsync(new CommandDefinition(
@@ -43,6 +50,10 @@ internal sealed class MigrationRunner(IStoreDatabase database, TimeProvider? tim
             {
                 await connection.ExecuteAsync(new CommandDefinition("SELECT pg_advisory_unlock(@k)", new { k = AdvisoryLockKey }, cancellationToken: CancellationToken.None));
             }
+            else
+            {
+                await connection.ExecuteAsync(new CommandDefinition("PRAGMA foreign_keys=ON", cancellationToken: CancellationToken.None));
+            }
         }
 
         return applied;
@@ -52,6 +63,15 @@ internal sealed class MigrationRunner(IStoreDatabase database, TimeProvider? tim
     {
         await using var transaction = await connection.BeginTransactionAsync(cancellationToken);
         await connection.ExecuteAsync(new CommandDefinition(script.Sql, transaction: transaction, cancellationToken: cancellationToken));
+        if (database.Dialect == StoreDialect.Sqlite)
+        {
+            var broken = (await connection.QueryAsync(new CommandDefinition("PRAGMA foreign_key_check", transaction: transaction, cancellationToken: cancellationToken))).Count();
+            if (broken > 0)
+            {
+                throw new InvalidOperationException($"Migration {script.Name} left {broken} rows whose foreign key points nowhere; it was rolled back.");
+            }
+        }
+
         await connection.ExecuteAsync(new CommandDefinition(
             "INSERT INTO schema_migrations (version, name, applied_at_ms) VALUES (@Version, @Name, @At)",
             new { script.Version, script.Name, At = (time ?? TimeProvider.System).GetUtcNow().ToUnixTimeMilliseconds() },

@@ -247,6 +247,57 @@ public sealed class AlertLifecycleTests
     }
 
     [Fact]
+    public void Evaluate_UnmeasurableChecks_NeverResolveAnOpenCriticalAndFireCheckFailingAfterK()
+    {
+        // An empty window says nothing about the fault: the notified sign_flip must stay firing through every
+        // unmeasurable check, while check_failing counts those checks exactly like failed ones.
+        var driver = new Driver(new AlertingConfig { CheckFailingAfter = 3 });
+        driver.Run(T0, Ok("orders", Critical(FindingKind.SignFlip)));
+
+        var empties = Enumerable.Range(1, 3)
+            .Select(k => driver.Run(T0.AddHours(k), PairOutcome.Unmeasurable("orders", 10 + k, k, "No rows in the window: there is nothing to measure of y against x.")))
+            .ToArray();
+
+        Assert.All(empties, d => Assert.DoesNotContain(d.Changes, c => c.Status == AlertStatus.Resolved));
+        Assert.All(empties, d => Assert.DoesNotContain(d.Notifications, n => n.Kind == NotificationKind.Resolved));
+        Assert.Contains(driver.Open, a => a.Kind == FindingKind.SignFlip && a.Status == AlertStatus.Firing);
+        Assert.Equal([0, 0, 1], empties.Select(d => d.Notifications.Count));
+        var failing = Assert.Single(empties[^1].Notifications).Alert;
+        Assert.Equal(FindingKind.CheckFailing, failing.Kind);
+        Assert.Equal(Severity.Critical, failing.Severity);
+        Assert.Equal(3, failing.ConsecutiveRuns);
+        Assert.Equal("The check ran but could not measure the pair: No rows in the window: there is nothing to measure of y against x.", failing.Message);
+    }
+
+    [Fact]
+    public void Evaluate_SucceededRunAfterUnmeasurable_ResolvesCheckFailing()
+    {
+        var driver = new Driver(new AlertingConfig { CheckFailingAfter = 1 });
+        driver.Run(T0, PairOutcome.Unmeasurable("orders", 1, 1, "Only 4 usable rows."));
+
+        var back = driver.Run(T0.AddHours(1), Ok("orders"));
+
+        var resolved = Assert.Single(back.Changes);
+        Assert.Equal(FindingKind.CheckFailing, resolved.Kind);
+        Assert.Equal(AlertStatus.Resolved, resolved.Status);
+        Assert.Equal(NotificationKind.Resolved, Assert.Single(back.Notifications).Kind);
+    }
+
+    [Fact]
+    public void Evaluate_FailedThenUnmeasurable_CountTogether()
+    {
+        // The monitor counts both kinds in one streak; the lifecycle takes its count as the persistence.
+        var driver = new Driver(new AlertingConfig { CheckFailingAfter = 2 });
+
+        var failed = driver.Run(T0, PairOutcome.Failure("orders", 1, 1, "connection refused"));
+        var empty = driver.Run(T0.AddHours(1), PairOutcome.Unmeasurable("orders", 2, 2, "No rows in the window."));
+
+        Assert.Empty(failed.Notifications);
+        Assert.Equal(NotificationKind.Fired, Assert.Single(empty.Notifications).Kind);
+        Assert.Equal(2, Assert.Single(empty.Changes).ConsecutiveRuns);
+    }
+
+    [Fact]
     public void Evaluate_OnlyPairsInTheCycle_AreTouched()
     {
         var driver = new Driver();

@@ -217,6 +217,26 @@ public abstract class HistoryStoreContract : IAsyncLifetime
         Assert.Equal(7, await connection.ExecuteScalarAsync<int>("SELECT COUNT(*) FROM findings"));
     }
 
+    [Fact]
+    public async Task RecordRun_UnmeasurableRun_KeepsReasonProfileAndPointsAndIsNoSuccessfulRun()
+    {
+        // A constant x: the run keeps its counts and points for people, but no baseline query may return it.
+        var points = new PairedSample([.. Enumerable.Repeat(8.0, 12)], [.. Enumerable.Range(0, 12).Select(i => (double)i)]);
+        var profile = Profiler.Profile(points, Core.Statistics.Thresholds.Default);
+        var run = new NewRun("p", T0, T0.AddSeconds(1), RunStatus.Unmeasurable, "x is constant (8) in all 12 usable rows", profile, [], null, points, "all");
+
+        var id = await Store.RecordRunAsync(run, CancellationToken.None);
+        var stored = (await Store.GetRunAsync(id, includePoints: true, CancellationToken.None))!;
+
+        Assert.Equal(RunStatus.Unmeasurable, stored.Status);
+        Assert.Equal(run.Error, stored.Error);
+        Assert.Equal(profile, stored.Profile);
+        Assert.Equal(points.X, stored.Points!.X);
+        await using var connection = await Database.OpenAsync(CancellationToken.None);
+        Assert.Equal("unmeasurable", await connection.ExecuteScalarAsync<string>("SELECT status FROM runs WHERE id = @id", new { id }));
+        Assert.Empty(await Store.GetSuccessfulRunsAsync("p", null, null, null, CancellationToken.None));
+    }
+
     private static void AssertSameBaseline(StoredBaseline expected, StoredBaseline actual)
     {
         Assert.Equal(expected with { Points = PairedSample.Empty }, actual with { Points = PairedSample.Empty });

@@ -135,6 +135,86 @@ public sealed class CheckCommandTests : IDisposable
     }
 
     [Fact]
+    public async Task Check_EmptyTableAfterACriticalAlert_ExitsThreeUnmeasurableAndTheAlertStaysOpen()
+    {
+        // Baseline of two healthy runs, then y becomes a copy of x: became_perfect, critical, fires at once.
+        await CliRun.Of("check", "--config", ConfigPath);
+        await CliRun.Of("check", "--config", ConfigPath);
+        using (var connection = Open())
+        {
+            Execute(connection, "UPDATE shifts SET pallets = crew_hours");
+        }
+
+        Assert.Equal(1, (await CliRun.Of("check", "--config", ConfigPath)).ExitCode);
+        using (var connection = Open())
+        {
+            // The load of the window is late: the table is empty. SQLite's own count says so.
+            Execute(connection, "DELETE FROM shifts");
+            using var count = connection.CreateCommand();
+            count.CommandText = "SELECT COUNT(*) FROM shifts";
+            Assert.Equal(0L, (long)count.ExecuteScalar()!);
+        }
+
+        var run = await CliRun.Of("check", "--config", ConfigPath, "--format", "json");
+
+        Assert.Equal(3, run.ExitCode);
+        using var json = JsonDocument.Parse(run.Out);
+        Assert.Equal(3, json.RootElement.GetProperty("exit_code").GetInt32());
+        var pair = json.RootElement.GetProperty("pairs")[0];
+        Assert.Equal("unmeasurable", pair.GetProperty("status").GetString());
+        Assert.Equal("No rows in the window: there is nothing to measure of pallets against crew_hours.", pair.GetProperty("error").GetString());
+        Assert.Equal(0, pair.GetProperty("profile").GetProperty("n_rows").GetInt32());
+        Assert.Equal(0, pair.GetProperty("findings").GetArrayLength());
+        Assert.True(pair.GetProperty("has_baseline").GetBoolean(), "the stored baseline is still there, only not compared");
+
+        var alerts = await CliRun.Of("alerts", "list", "--config", ConfigPath, "--format", "json");
+        using var list = JsonDocument.Parse(alerts.Out);
+        var all = list.RootElement.GetProperty("alerts").EnumerateArray().ToList();
+        var perfect = Assert.Single(all, a => a.GetProperty("kind").GetString() == "became_perfect");
+        Assert.Equal("critical", perfect.GetProperty("severity").GetString());
+        Assert.Equal("firing", perfect.GetProperty("status").GetString());
+        Assert.Equal(JsonValueKind.Null, perfect.GetProperty("resolved_at").ValueKind);
+        var failing = Assert.Single(all, a => a.GetProperty("kind").GetString() == "check_failing");
+        Assert.Equal("pending", failing.GetProperty("status").GetString());
+        Assert.Contains("could not measure the pair: No rows in the window", failing.GetProperty("message").GetString(), StringComparison.Ordinal);
+
+        var history = await CliRun.Of("history", "hours-vs-pallets", "--config", ConfigPath, "--format", "json");
+        using var runs = JsonDocument.Parse(history.Out);
+        var latest = runs.RootElement.GetProperty("runs")[0];
+        Assert.Equal("unmeasurable", latest.GetProperty("status").GetString());
+        Assert.StartsWith("No rows in the window", latest.GetProperty("error").GetString(), StringComparison.Ordinal);
+        var table = await CliRun.Of("history", "hours-vs-pallets", "--config", ConfigPath);
+        Assert.Contains("unmeasurable", table.Out, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public async Task Check_ConstantColumn_ExitsThreeSayingTheValueAndBuildsNoBaseline()
+    {
+        using (var connection = Open())
+        {
+            // A column never filled in: every pallets value is 0.
+            Execute(connection, "UPDATE shifts SET pallets = 0");
+        }
+
+        var first = await CliRun.Of("check", "--config", ConfigPath);
+        var second = await CliRun.Of("check", "--config", ConfigPath, "--format", "json");
+
+        Assert.Equal(3, first.ExitCode);
+        Assert.Contains("unmeasurable", first.Out, StringComparison.Ordinal);
+        var row = Assert.Single(first.Out.Split('\n'), l => l.Contains("hours-vs-pallets", StringComparison.Ordinal) && l.Contains('│'));
+        Assert.DoesNotContain(" ok", row, StringComparison.Ordinal);
+        using var json = JsonDocument.Parse(second.Out);
+        var pair = json.RootElement.GetProperty("pairs")[0];
+        Assert.Equal("unmeasurable", pair.GetProperty("status").GetString());
+        Assert.Equal($"pallets is constant (0) in all {_x.Length} usable rows: the correlation of pallets with crew_hours is undefined.", pair.GetProperty("error").GetString());
+        Assert.Equal(_x.Length, pair.GetProperty("profile").GetProperty("n_used").GetInt32());
+        Assert.False(pair.GetProperty("has_baseline").GetBoolean());
+        // first_runs: 2, yet two unmeasurable runs made no baseline.
+        var baseline = await CliRun.Of("baseline", "show", "hours-vs-pallets", "--config", ConfigPath);
+        Assert.Contains("'hours-vs-pallets' has no baseline yet", baseline.Error, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public async Task Check_BadConfiguration_ExitsTwoWithFileLineAndKey()
     {
         File.WriteAllText(ConfigPath, File.ReadAllText(ConfigPath).Replace("    x: crew_hours", "    x: crew_hours\n    smaple:\n      rows: 100", StringComparison.Ordinal));

@@ -34,6 +34,18 @@ public sealed partial class ConfigDocsTests
         }
     }
 
+    [Fact]
+    public void Docs_CountThresholdDefaults_MatchTheCode()
+    {
+        foreach (var (key, _, _, _) in ThresholdsSection.CountEntries)
+        {
+            var row = new Regex($@"^\| `{key}` \| `([^`]+)` \|", RegexOptions.Multiline | RegexOptions.CultureInvariant).Match(Docs);
+            Assert.True(row.Success, key);
+            var property = typeof(Thresholds).GetProperties().Single(p => string.Equals(Snake().Replace(p.Name, "_$1"), key, StringComparison.OrdinalIgnoreCase));
+            Assert.Equal((int)property.GetValue(Thresholds.Default)!, int.Parse(row.Groups[1].Value, CultureInfo.InvariantCulture));
+        }
+    }
+
     private static IEnumerable<KeyLevel> AllLevels(KeyLevel level) =>
         new[] { level }.Concat(level.Children().SelectMany(c => AllLevels(c.Child))).Distinct();
 

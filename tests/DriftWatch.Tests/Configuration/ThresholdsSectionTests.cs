@@ -10,6 +10,9 @@ public sealed class ThresholdsSectionTests
     private static readonly PropertyInfo[] Members =
         [.. typeof(Thresholds).GetProperties(BindingFlags.Public | BindingFlags.Instance).Where(p => p.PropertyType == typeof(double))];
 
+    private static readonly PropertyInfo[] CountMembers =
+        [.. typeof(Thresholds).GetProperties(BindingFlags.Public | BindingFlags.Instance).Where(p => p.PropertyType == typeof(int))];
+
     private static string SnakeCase(string name)
     {
         var text = new StringBuilder();
@@ -29,7 +32,43 @@ public sealed class ThresholdsSectionTests
     [Fact]
     public void Keys_CoverEveryThresholdMember()
     {
-        Assert.Equal(Members.Select(m => SnakeCase(m.Name)).Order(StringComparer.Ordinal), ThresholdsSection.Keys.Order(StringComparer.Ordinal));
+        // Every public member is a double or a whole-number count; nothing else could be read from YAML.
+        Assert.Equal(typeof(Thresholds).GetProperties(BindingFlags.Public | BindingFlags.Instance).Length, Members.Length + CountMembers.Length);
+        Assert.Equal(
+            Members.Concat(CountMembers).Select(m => SnakeCase(m.Name)).Order(StringComparer.Ordinal),
+            ThresholdsSection.Keys.Order(StringComparer.Ordinal));
+    }
+
+    [Fact]
+    public void Read_EachCountKey_SetsItsOwnMember()
+    {
+        foreach (var member in CountMembers)
+        {
+            var key = SnakeCase(member.Name);
+            var entry = ThresholdsSection.CountEntries.Single(e => e.Key == key);
+            var value = entry.Min + 4;
+            Assert.NotEqual((int)member.GetValue(Thresholds.Default)!, value);
+            var result = ConfigText.Parse(ConfigText.SqliteSource + $"\ndefaults:\n  thresholds:\n    {key}: {value}\npairs:\n  - name: a\n    source: shop\n    table: t\n    x: u\n    y: v\n");
+            Assert.True(result.Ok, string.Join("\n", ConfigText.Lines(result)));
+            var thresholds = result.Config!.Pairs[0].Thresholds;
+            Assert.Equal(value, (int)member.GetValue(thresholds)!);
+            Assert.Equal(Thresholds.Default with { MinUsableRows = thresholds.MinUsableRows }, thresholds);
+        }
+    }
+
+    [Fact]
+    public void Read_MinUsableRowsOutOfRangeOrFractional_SaysWhy()
+    {
+        var errors = ConfigText.Lines(ConfigText.Parse(ConfigText.SqliteSource + "\ndefaults:\n  thresholds:\n    min_usable_rows: 2\npairs:\n  - name: a\n    source: shop\n    table: t\n    x: u\n    y: v\n    thresholds:\n      min_usable_rows: 10.5\n"));
+        Assert.Contains("test.yaml:7:22: defaults.thresholds.min_usable_rows: must be at least 3, was 2", errors);
+        Assert.Contains(errors, e => e.Contains("pairs[0].thresholds.min_usable_rows: must be a whole number, was '10.5'", StringComparison.Ordinal));
+    }
+
+    [Fact]
+    public void Read_MinUsableRowsAboveSampleRows_Refused()
+    {
+        var errors = ConfigText.Lines(ConfigText.Parse(ConfigText.SqliteSource + "\npairs:\n  - name: a\n    source: shop\n    table: t\n    x: u\n    y: v\n    sample: { method: random, rows: 50 }\n    thresholds: { min_usable_rows: 100 }\n"));
+        Assert.Contains(errors, e => e.Contains("min_usable_rows (100) is more than sample.rows (50)", StringComparison.Ordinal));
     }
 
     /// <summary>Each key sets its own member and no other, read through the YAML like a user writes it.</summary>

@@ -31,7 +31,7 @@ public sealed class JsonContractTests
     {
         var json = Serialize(Report(new RelationshipProfile()));
 
-        Assert.Equal(["current", "baseline", "findings"], json.EnumerateObject().Select(p => p.Name));
+        Assert.Equal(["current", "baseline", "findings", "unmeasurable"], json.EnumerateObject().Select(p => p.Name));
         Assert.Equal(ProfileFields, json.GetProperty("current").EnumerateObject().Select(p => p.Name));
         Assert.Equal(JsonValueKind.Null, json.GetProperty("baseline").ValueKind);
     }

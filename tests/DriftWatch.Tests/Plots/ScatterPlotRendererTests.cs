@@ -67,4 +67,20 @@ public sealed class ScatterPlotRendererTests
         Assert.Contains("no sampled points to show", SvgText.Of(svg));
         Assert.Contains("first_col", SvgText.Of(svg));
     }
+
+    [Fact]
+    public void RenderPng_UnmeasurableRunWithAConstantX_RendersItsPointsWithoutALine()
+    {
+        // What an unmeasurable run keeps (a check_failing mail may plot it): Anscombe (1973) set 4's ten rows with
+        // x = 8, a constant column whose profile has no slope.
+        var points = new Core.Profiling.PairedSample([.. Enumerable.Repeat(8.0, 10)], [6.58, 5.76, 7.71, 8.84, 8.47, 7.04, 5.25, 5.56, 7.91, 6.89]);
+        var profile = Core.Profiling.Profiler.Profile(points, Core.Statistics.Thresholds.Default);
+        Assert.Null(profile.Slope);
+        var input = new ScatterPlotInput("axle_count", "toll_eur", null, null, points, profile);
+
+        var png = ScatterPlotRenderer.RenderPng(input, 500, 320);
+
+        Assert.Equal((500, 320), PngImage.AssertValid(png));
+        Assert.True(PngImage.Count(png, c => c.Blue - c.Red > 60 && c.Green - c.Red > 40) > 10, "no coloured current points");
+    }
 }

@@ -91,7 +91,15 @@ internal sealed class DashboardReader(DriftWatchConfig config, IHistoryStore his
         var latest = runs.Count > 0 ? runs[0] : null;
         var summary = new PairSummary(name, config.FindPair(name), PairStatusRules.Derive(latest, open, baseline is not null), latest, baseline, open);
         var recent = await alerts.ListAlertsAsync(time.GetUtcNow() - RecentAlerts, MaxAlerts, cancellationToken, name);
-        return new PairDetail(summary, pageRuns, page, pageSize, total, trend, plotRun, recent);
+        int? needed = null;
+        if (baseline is null && summary.Config?.Baseline is { Kind: BaselinePolicyKind.FirstRuns } policy)
+        {
+            // The runs the policy would pool, counted as it counts them: succeeded (never failed or unmeasurable), with points.
+            var good = await history.GetSuccessfulRunsAsync(name, null, null, policy.FirstRuns, cancellationToken);
+            needed = Math.Max(0, policy.FirstRuns - good.Count(r => r.Points is { UsedCount: > 0 }));
+        }
+
+        return new PairDetail(summary, pageRuns, page, pageSize, total, trend, plotRun, recent, needed);
     }
 
     /// <summary>Open alerts, recently resolved ones and the outbox; of one pair only when <paramref name="pair"/> is set.</summary>

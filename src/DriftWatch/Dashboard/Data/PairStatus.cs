@@ -12,6 +12,9 @@ internal enum PairStatus
     /// <summary>The latest check failed: the pair is not being watched right now.</summary>
     Failing,
 
+    /// <summary>The latest check ran but had nothing to measure (no rows, too few usable rows, a constant column).</summary>
+    Unmeasurable,
+
     /// <summary>A warning or worse was seen but has not persisted long enough to fire.</summary>
     Pending,
 

@@ -8,7 +8,7 @@ namespace DriftWatch.Dashboard.Data;
 internal static class PairStatusRules
 {
     /// <summary>
-    /// A failed latest check comes first among the facts (what the pair shows now is stale), then firing,
+    /// A failed or unmeasurable latest check comes first among the facts (what the pair shows now is stale), then firing,
     /// then pending. Info alerts stay pending for ever by design (dashboard only), so they do not make a pair
     /// pending. A pair without a baseline can still fire on its own profile (perfect_relationship, outliers).
     /// </summary>
@@ -23,6 +23,11 @@ internal static class PairStatusRules
         if (latest.Status == RunStatus.Failed)
         {
             return PairStatus.Failing;
+        }
+
+        if (latest.Status == RunStatus.Unmeasurable)
+        {
+            return PairStatus.Unmeasurable;
         }
 
         var serious = openAlerts.Where(a => a.IsOpen && a.Severity >= Severity.Warning).ToArray();

@@ -26,7 +26,7 @@ internal sealed class DashboardMetrics(IStoreDatabase database, IAlertStore aler
     /// <summary>Upper bounds in seconds; fixed, since buckets that change between scrapes break aggregation (spec).</summary>
     public static readonly double[] DurationBuckets = [0.05, 0.1, 0.25, 0.5, 1, 2.5, 5, 10, 30, 60, 120, 300];
 
-    private static readonly string[] Statuses = ["succeeded", "failed"];
+    private static readonly string[] Statuses = [.. Enum.GetValues<Core.History.RunStatus>().Select(JsonContract.Name)];
 
     private Watermark? _watermark;
 

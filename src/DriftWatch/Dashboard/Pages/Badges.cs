@@ -17,6 +17,7 @@ internal static class Badges
     {
         PairStatus.Firing => "▲",
         PairStatus.Failing => "✕",
+        PairStatus.Unmeasurable => "∅",
         PairStatus.Pending => "◔",
         PairStatus.NoBaseline => "○",
         PairStatus.NoRuns => "·",

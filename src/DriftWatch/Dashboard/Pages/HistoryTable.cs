@@ -54,7 +54,8 @@ internal static class HistoryTable
     {
         var p = run.Profile;
         var failed = run.Status == RunStatus.Failed;
-        html.Open("tr", ("data-run-id", run.Id.ToString(CultureInfo.InvariantCulture)), ("class", failed ? "run-failed" : null));
+        var unmeasurable = run.Status == RunStatus.Unmeasurable;
+        html.Open("tr", ("data-run-id", run.Id.ToString(CultureInfo.InvariantCulture)), ("class", failed || unmeasurable ? "run-failed" : null));
         html.Open("td", ("class", "when"));
         html.Element("time", Display.TimeWithSeconds(run.StartedAt), ("datetime", Display.Iso(run.StartedAt)));
         html.Element("span", "took " + Display.Duration(run.FinishedAt - run.StartedAt), ("class", "sub"));
@@ -63,6 +64,10 @@ internal static class HistoryTable
         if (failed)
         {
             html.Element("span", "failed", ("class", "outcome outcome-failed"));
+        }
+        else if (unmeasurable)
+        {
+            html.Element("span", "unmeasurable", ("class", "outcome outcome-failed"));
         }
         else if (run.WorstSeverity is { } worst)
         {
@@ -84,7 +89,7 @@ internal static class HistoryTable
         Num(html, Display.Percent(p?.OutlierRate));
         Num(html, Display.Percent(p is { NRows: > 0 } ? (double)p.NNull / p.NRows : null));
         html.Open("td", ("class", "run-findings"));
-        if (failed)
+        if (failed || unmeasurable)
         {
             html.Element("span", run.Error ?? "failed without a message", ("class", "error-line"));
         }

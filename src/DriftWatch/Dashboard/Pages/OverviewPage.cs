@@ -193,7 +193,7 @@ internal static class OverviewPage
                 h.Element("span", "not in the configuration (history only)", ("class", "sub"));
             }
 
-            if (row.Latest is { Status: RunStatus.Failed, Error: { } error })
+            if (row.Latest is { Status: RunStatus.Failed or RunStatus.Unmeasurable, Error: { } error })
             {
                 h.Element("span", Shorten(error, 140), ("class", "sub error-line"), ("title", error));
             }
@@ -210,7 +210,9 @@ internal static class OverviewPage
             current?.QuadraticP < thresholds.Alpha && current?.QuadraticR2Gain >= thresholds.CurvatureMinR2Gain ? "the cloud bends (significant quadratic term)" : null);
         Number(html, current?.OutlierRate, Display.Percent(current?.OutlierRate),
             current?.OutlierRate > thresholds.MaxOutlierRate ? $"above the pair's {Display.Percent(thresholds.MaxOutlierRate)}" : null);
-        Number(html, current?.NUsed, Display.Count(current?.NUsed));
+        // An unmeasurable run still shows how many rows it could use (often 0): that is the news.
+        var used = current?.NUsed ?? (row.Latest is { Status: RunStatus.Unmeasurable, Profile: { } counted } ? counted.NUsed : null);
+        Number(html, used, Display.Count(used));
         LastRun(html, context, row.Latest);
         OpenAlerts(html, row);
         html.Close("tr");

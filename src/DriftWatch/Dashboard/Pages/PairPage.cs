@@ -20,7 +20,7 @@ internal static class PairPage
         return PageLayout.Render(context, summary.Name, null, html =>
         {
             Heading(html, context, summary);
-            Findings(html, summary);
+            Findings(html, detail);
             OpenAlerts(html, context, detail);
             Plots(html, detail);
             html.Open("div", ("class", "facts"));
@@ -80,10 +80,20 @@ internal static class PairPage
             html.Text(failed.Error ?? "no error message was recorded");
             html.Close("div");
         }
+        else if (summary.Latest is { Status: RunStatus.Unmeasurable } empty)
+        {
+            // Same look as a failed check (nobody is watching the relationship), its own words: the check did run.
+            html.Open("div", ("class", "callout callout-failing callout-unmeasurable"), ("role", "status"));
+            html.Element("strong", "Unmeasurable: the latest check had nothing to measure. ");
+            html.Text(empty.Error ?? "no reason was recorded");
+            html.Text(" It counts toward the check-failing alert and resolves no alert.");
+            html.Close("div");
+        }
     }
 
-    private static void Findings(Html html, PairSummary summary)
+    private static void Findings(Html html, PairDetail detail)
     {
+        var summary = detail.Summary;
         var latest = summary.Latest;
         if (latest is null || latest.Status != RunStatus.Succeeded)
         {
@@ -94,7 +104,7 @@ internal static class PairPage
         html.Element("h2", "What the latest check found", ("id", "findings-title"));
         if (latest.Findings.Count == 0)
         {
-            html.Element("p", "No findings: the relationship looks as it did in the baseline.", ("class", "muted"));
+            html.Element("p", NoFindingsText(detail), ("class", "muted"));
         }
         else
         {
@@ -118,6 +128,26 @@ internal static class PairPage
         }
 
         html.Close("section");
+    }
+
+    /// <summary>Only a pair with a baseline can look "as it did"; without one, say what is still missing.</summary>
+    internal static string NoFindingsText(PairDetail detail)
+    {
+        ArgumentNullException.ThrowIfNull(detail);
+        if (detail.Summary.Baseline is not null)
+        {
+            return "No findings: the relationship looks as it did in the baseline.";
+        }
+
+        var lead = "No findings in this run's own profile. There is no baseline yet, so nothing was compared";
+        if (detail.BaselineRunsNeeded is { } needed && detail.Summary.Config?.Baseline is { } policy)
+        {
+            return needed == 0
+                ? $"{lead}; the baseline ({policy}) is built at the next check."
+                : $"{lead}; the baseline ({policy}) needs {Display.Count(needed)} more measurable run{(needed == 1 ? "" : "s")}.";
+        }
+
+        return lead + ".";
     }
 
     private static string? FindingFigures(Finding finding)

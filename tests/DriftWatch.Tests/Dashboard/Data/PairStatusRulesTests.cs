@@ -24,6 +24,10 @@ public sealed class PairStatusRulesTests
         Assert.Equal(PairStatus.Firing, PairStatusRules.Derive(ok, [Alert(Severity.Warning, AlertStatus.Firing)], hasBaseline: false));
         // A failed latest check outranks what the older runs said.
         Assert.Equal(PairStatus.Failing, PairStatusRules.Derive(failed, [Alert(Severity.Critical, AlertStatus.Firing)], hasBaseline: true));
+        // So does an unmeasurable one: nothing was measured, with or without a baseline, whatever is open.
+        var empty = Run(RunStatus.Unmeasurable);
+        Assert.Equal(PairStatus.Unmeasurable, PairStatusRules.Derive(empty, [Alert(Severity.Critical, AlertStatus.Firing)], hasBaseline: true));
+        Assert.Equal(PairStatus.Unmeasurable, PairStatusRules.Derive(empty, [], hasBaseline: false));
     }
 
     [Fact]
@@ -36,9 +40,10 @@ public sealed class PairStatusRulesTests
     public void Statuses_AreOrderedWorstFirst()
     {
         Assert.Equal(
-            [PairStatus.Firing, PairStatus.Failing, PairStatus.Pending, PairStatus.NoBaseline, PairStatus.NoRuns, PairStatus.Healthy],
+            [PairStatus.Firing, PairStatus.Failing, PairStatus.Unmeasurable, PairStatus.Pending, PairStatus.NoBaseline, PairStatus.NoRuns, PairStatus.Healthy],
             Enum.GetValues<PairStatus>().Order());
         Assert.Equal("no baseline", PairStatusRules.Label(PairStatus.NoBaseline));
+        Assert.Equal("unmeasurable", PairStatusRules.Label(PairStatus.Unmeasurable));
     }
 
     private static RunRecord Run(RunStatus status) => new(1, "p", At, At, status, null, null, [], null, null, null);

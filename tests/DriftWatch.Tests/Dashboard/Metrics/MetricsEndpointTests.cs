@@ -35,6 +35,8 @@ public sealed class MetricsEndpointTests
         Assert.Equal(2, Value(runs, "driftwatch_runs_total", ("pair", DashboardScenario.Healthy), ("status", "succeeded")));
         Assert.Equal(1, Value(runs, "driftwatch_runs_total", ("pair", DashboardScenario.Healthy), ("status", "failed")));
         Assert.Equal(0, Value(runs, "driftwatch_runs_total", ("pair", DashboardScenario.Perfect), ("status", "succeeded")));
+        // Every run status has its series from the first scrape on, unmeasurable included.
+        Assert.Equal(0, Value(runs, "driftwatch_runs_total", ("pair", DashboardScenario.Healthy), ("status", "unmeasurable")));
         // _created: when counting started, the first scrape (the fixed clock), in Unix seconds.
         Assert.Equal(at.ToUnixTimeSeconds(), Value(runs, "driftwatch_runs_created", ("pair", DashboardScenario.Healthy), ("status", "failed")));
 
