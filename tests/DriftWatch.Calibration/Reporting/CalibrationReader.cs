@@ -67,7 +67,15 @@ internal static class CalibrationReader
                     if (run.Status != RunStatus.Succeeded)
                     {
                         fUnmeasured++;
-                        _ = monitored ? unmeasuredMonitored++ : unmeasuredBaseline++;
+                        if (monitored)
+                        {
+                            unmeasuredMonitored++;
+                        }
+                        else
+                        {
+                            unmeasuredBaseline++;
+                        }
+
                         if (samples.Count < 5)
                         {
                             samples.Add($"{pair.Name} day {day}: {JsonContract.Name(run.Status)}: {run.Error}");
