@@ -67,7 +67,15 @@ internal static class CalibrationReader
                     if (run.Status != RunStatus.Succeeded)
                     {
                         fUnmeasured++;
-                        _ = monitored ? unmeasuredMonitored++ : unmeasuredBaseline++;
+                        if (monitored)
+                        {
+                            unmeasuredMonitored++;
+                        }
+                        else
+                        {
+                            unmeasuredBaseline++;
+                        }
+
                         if (samples.Count < 5)
                         {
                             samples.Add($"{pair.Name} day {day}: {JsonContract.Name(run.Status)}: {run.Error}");
@@ -120,9 +128,8 @@ internal static class CalibrationReader
         var caught = inTime.Where(a => fault.Expected.Contains(a.Kind)).OrderBy(a => a.FiredAt).ToArray();
         var window = runs.Where(r => CalibrationPlan.DayOf(r.StartedAt) is var d && d >= faultDay && d <= last).ToArray();
         var expectedFindings = window.SelectMany(r => r.Findings).Where(f => fault.Expected.Contains(f.Kind)).ToArray();
-        Severity? severity = caught.Length > 0 ? caught.Max(a => a.Severity)
-            : expectedFindings.Length > 0 ? expectedFindings.Max(f => f.Severity)
-            : null;
+        // From the two checks' findings, not the alert's stored state, which later days may have changed.
+        Severity? severity = expectedFindings.Length > 0 ? expectedFindings.Max(f => f.Severity) : null;
 
         var firstWith = window.FirstOrDefault(r => r.Findings.Count > 0 || r.Status != RunStatus.Succeeded);
         var first = firstWith is null ? []

@@ -65,7 +65,7 @@ internal sealed record FamilyCount(string Family, int Pairs, int Checks, int Fin
 /// or d+1; <see cref="AnyAlert"/> when any alert did; <see cref="FirstFindings"/> lists the findings of the
 /// first run from day d on that had any ("kind severity", "@d+1" when that run was the next day's).
 /// </summary>
-/// <param name="Severity">Of the caught alert; otherwise of the worst expected-kind finding in the two checks; null when none.</param>
+/// <param name="Severity">The worst expected-kind finding in the two checks; null when none.</param>
 /// <param name="UnitCritical">Unit faults only: a slope_shift finding in the two checks was critical.</param>
 /// <param name="UnitNamed">Unit faults only: a slope_shift finding's message names the factor (f, 1/f, or 1/f's decimal).</param>
 internal sealed record FaultOutcome(
