@@ -30,10 +30,14 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
         var points = run.Points is null ? null : PointsCodec.Encode(PointsCodec.Thin(run.Points, pointsPerRun));
         await using var connection = await database.OpenAsync(cancellationToken);
         await using var transaction = await connection.BeginTransactionAsync(cancellationToken);
+        // baseline_json is named only when there is one to write, so a run without a baseline is written by the
+        // same statement a store before migration 005 took.
+        var judged = run.JudgedAgainst is null ? string.Empty : ", baseline_json";
+        var judgedValue = run.JudgedAgainst is null ? string.Empty : ", @BaselineJson";
         var id = await connection.ExecuteScalarAsync<long>(new CommandDefinition(
-            """
-            INSERT INTO runs (pair, started_at_ms, finished_at_ms, status, error, sample_method, profile_json, source_figures_json, points, baseline_json)
-            VALUES (@Pair, @StartedAtMs, @FinishedAtMs, @Status, @Error, @SampleMethod, @ProfileJson, @FiguresJson, @Points, @BaselineJson)
+            $"""
+            INSERT INTO runs (pair, started_at_ms, finished_at_ms, status, error, sample_method, profile_json, source_figures_json, points{judged})
+            VALUES (@Pair, @StartedAtMs, @FinishedAtMs, @Status, @Error, @SampleMethod, @ProfileJson, @FiguresJson, @Points{judgedValue})
             RETURNING id
             """,
             new

@@ -42,7 +42,7 @@ internal sealed class CalibrationRunner(TextWriter progress)
             await source.CreateAsync(plan.Pairs, cancellationToken);
             var config = LoadConfig(plan, source, folder.FullName);
 
-            var clock = new SettableClock(CalibrationPlan.CheckTimeOf(1));
+            var clock = new DriftWatch.Demo.DemoClock(CalibrationPlan.CheckTimeOf(1));
             await using var services = new ServiceCollection()
                 .AddLogging(logging => logging.ClearProviders()) // outcomes are read from the store, failures included
                 .AddDriftWatch(config, clock)

@@ -180,7 +180,11 @@ public sealed class ComparisonFindingsTests
         var findings = Compare(new PairedSample(x, y));
 
         var f = Single(findings, FindingKind.LeverageAppeared);
-        Assert.Equal(Severity.Warning, f.Severity);
+
+        // The row at x = 1000, y = 0 alone turns r of about 0.7 negative: it changes what readers see, so critical.
+        var p = Scenarios.Profile(new PairedSample(x, y));
+        Assert.True(Math.Abs(p.PearsonR!.Value - p.PearsonRWithoutTopInfluence!.Value) >= Thresholds.Default.MinCorrelationChange);
+        Assert.Equal(Severity.Critical, f.Severity);
         Assert.Contains("single row", f.Message, StringComparison.Ordinal);
     }
 

@@ -39,7 +39,7 @@ public sealed class SampleAgreementTests
         var findings = FindingEngine.Assess(profile, sample, ExactOf(wx, wy), (StoredBaseline?)null, PairExpectation.Default, Thresholds.Default);
 
         var f = Assert.Single(findings, f => f.Kind == FindingKind.HiddenRowsDriveLine);
-        Assert.Equal(Severity.Warning, f.Severity);
+        Assert.Equal(Severity.Critical, f.Severity);
         Assert.Contains("60,001 rows", f.Message, StringComparison.Ordinal);
     }
 

@@ -239,7 +239,8 @@ public abstract class HistoryStoreContract : IAsyncLifetime
 
     private static void AssertSameBaseline(StoredBaseline expected, StoredBaseline actual)
     {
-        Assert.Equal(expected with { Points = PairedSample.Empty }, actual with { Points = PairedSample.Empty });
+        Assert.Equal(expected with { Points = PairedSample.Empty, Runs = [] }, actual with { Points = PairedSample.Empty, Runs = [] });
+        Assert.Equal(expected.Runs, actual.Runs);
         Assert.Equal(expected.Points.X, actual.Points.X);
         Assert.Equal(expected.Points.Y, actual.Points.Y);
     }
