@@ -8,10 +8,14 @@ namespace DriftWatch.Core.Findings;
 /// points (shape, plots, the Kolmogorov–Smirnov tests).
 /// </summary>
 /// <param name="Runs">The pooled runs' figures; never empty (a baseline without them stands as one run).</param>
-internal sealed record BaselineView(IReadOnlyList<RunFigures> Runs, RelationshipProfile Pooled, PairedSample Points)
+/// <param name="CompareRowCounts">
+/// Row counts mean something: runs of one window. Two extracts compared by <c>profile</c> have whatever lengths
+/// they were cut to, so their counts are not compared.
+/// </param>
+internal sealed record BaselineView(IReadOnlyList<RunFigures> Runs, RelationshipProfile Pooled, PairedSample Points, bool CompareRowCounts = true)
 {
-    public static BaselineView Of(RelationshipProfile pooled, PairedSample points, IReadOnlyList<RunFigures>? runs, Statistics.Thresholds t) =>
-        new(runs is { Count: > 0 } ? runs : [RunFigures.Of(0, default, pooled, null, t)], pooled, points);
+    public static BaselineView Of(RelationshipProfile pooled, PairedSample points, IReadOnlyList<RunFigures>? runs, Statistics.Thresholds t, bool compareRowCounts = true) =>
+        new(runs is { Count: > 0 } ? runs : [RunFigures.Of(0, default, pooled, null, t)], pooled, points, compareRowCounts);
 
     /// <summary>Mean of a figure over the runs that have it; null when none has it.</summary>
     public double? Mean(Func<RunFigures, double?> figure)

@@ -311,7 +311,10 @@ internal static class ComparisonFindings
             }
         }
 
-        RowCount(now, bas, t, findings);
+        if (bas.CompareRowCounts)
+        {
+            RowCount(now, bas, t, findings);
+        }
     }
 
     /// <summary>

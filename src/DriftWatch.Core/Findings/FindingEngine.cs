@@ -45,13 +45,13 @@ public static class FindingEngine
         ArgumentNullException.ThrowIfNull(expect);
         ArgumentNullException.ThrowIfNull(t);
         var now = RunFigures.Of(0, default, current, null, t);
-        return ComparisonFindings.Of(current, now, currentSample, BaselineView.Of(baseline, baselineSample, null, t), expect, t, ColumnNames.Of(xName, yName));
+        return ComparisonFindings.Of(current, now, currentSample, BaselineView.Of(baseline, baselineSample, null, t, compareRowCounts: false), expect, t, ColumnNames.Of(xName, yName));
     }
 
     /// <summary>
     /// <see cref="Assess(RelationshipProfile, PairedSample, SourceFigures?, StoredBaseline?, PairExpectation, Thresholds, string, string)"/>
-    /// for a baseline known only by its pooled profile and points (a profile of an extract, a test): the baseline
-    /// stands as one run, with no spread between runs.
+    /// for a baseline known only by its pooled profile and points (two extracts compared by <c>profile</c>): the
+    /// baseline stands as one run, with no spread between runs, and the extracts' lengths are not compared.
     /// </summary>
     public static IReadOnlyList<Finding> Assess(
         RelationshipProfile current,
@@ -64,7 +64,7 @@ public static class FindingEngine
         string yName = "y")
     {
         ArgumentNullException.ThrowIfNull(t);
-        var view = baseline is null ? null : BaselineView.Of(baseline, baselineSample ?? PairedSample.Empty, null, t);
+        var view = baseline is null ? null : BaselineView.Of(baseline, baselineSample ?? PairedSample.Empty, null, t, compareRowCounts: false);
         return Assess(current, currentSample, null, view, expect, t, xName, yName, default);
     }
 

@@ -1,4 +1,5 @@
 using DriftWatch.Core.Configuration;
+using DriftWatch.Core.History;
 using DriftWatch.Core.Profiling;
 
 namespace DriftWatch.Alerts;
@@ -15,6 +16,12 @@ internal sealed record AlertPairContext(
     RelationshipProfile? Baseline,
     PairedSample? BaselinePoints)
 {
+    /// <summary>The source's exact figures over the run's window, when it computed them.</summary>
+    public SourceFigures? Window { get; init; }
+
+    /// <summary>The baseline the run was judged against, as recorded with the run (not one rebuilt later).</summary>
+    public BaselineSummary? JudgedAgainst { get; init; }
+
     /// <summary>For a notification whose pair is no longer configured: names only, no figures.</summary>
     public static AlertPairContext Unknown(string pair) =>
         new(new PairConfig { Name = pair, Source = "(not configured)", X = "x", Y = "y" }, null, null, null, null);

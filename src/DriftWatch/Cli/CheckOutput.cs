@@ -66,7 +66,9 @@ internal static class CheckOutput
             r.StartedAt,
             r.HasBaseline,
             r.Profile is null ? null : JsonContract.ToJson(r.Profile),
-            [.. r.Findings.Select(JsonContract.ToJson)]))]);
+            [.. r.Findings.Select(JsonContract.ToJson)],
+            WindowJson.Of(r.Window),
+            JudgedAgainstJson.Of(r.JudgedAgainst)))]);
 }
 
 internal sealed record CheckReportJson(
@@ -82,4 +84,6 @@ internal sealed record CheckPairJson(
     [property: JsonPropertyName("started_at")] DateTimeOffset StartedAt,
     [property: JsonPropertyName("has_baseline")] bool HasBaseline,
     [property: JsonPropertyName("profile")] ProfileJson? Profile,
-    [property: JsonPropertyName("findings")] IReadOnlyList<FindingJson> Findings);
+    [property: JsonPropertyName("findings")] IReadOnlyList<FindingJson> Findings,
+    [property: JsonPropertyName("window")] WindowJson? Window,
+    [property: JsonPropertyName("judged_against")] JudgedAgainstJson? JudgedAgainst);

@@ -91,7 +91,9 @@ internal static class HistoryCommand
         run.Error,
         run.SampleMethod,
         run.Profile is null ? null : JsonContract.ToJson(run.Profile),
-        [.. run.Findings.Select(JsonContract.ToJson)]);
+        [.. run.Findings.Select(JsonContract.ToJson)],
+        WindowJson.Of(run.SourceFigures),
+        JudgedAgainstJson.Of(run.JudgedAgainst));
 }
 
 internal sealed record HistoryJson(
@@ -106,4 +108,6 @@ internal sealed record HistoryRunJson(
     [property: JsonPropertyName("error")] string? Error,
     [property: JsonPropertyName("sample_method")] string? SampleMethod,
     [property: JsonPropertyName("profile")] ProfileJson? Profile,
-    [property: JsonPropertyName("findings")] IReadOnlyList<FindingJson> Findings);
+    [property: JsonPropertyName("findings")] IReadOnlyList<FindingJson> Findings,
+    [property: JsonPropertyName("window")] WindowJson? Window,
+    [property: JsonPropertyName("judged_against")] JudgedAgainstJson? JudgedAgainst);

@@ -125,7 +125,11 @@ internal sealed class AlertEvaluation(
             }
 
             var baseline = await history.GetBaselineAsync(pair.Name, cancellationToken);
-            contexts[pair.Name] = new AlertPairContext(pair, run.Profile, run.Points, baseline?.Profile, baseline?.Points);
+            contexts[pair.Name] = new AlertPairContext(pair, run.Profile, run.Points, baseline?.Profile, baseline?.Points)
+            {
+                Window = run.SourceFigures,
+                JudgedAgainst = run.JudgedAgainst,
+            };
         }
 
         if (outcomes.Count == 0)

@@ -17,6 +17,12 @@ internal sealed record PairCheckResult(
     DateTimeOffset FinishedAt,
     bool HasBaseline)
 {
+    /// <summary>The source's exact figures over the window, when it computed them.</summary>
+    public SourceFigures? Window { get; init; }
+
+    /// <summary>The baseline the run was judged against.</summary>
+    public BaselineSummary? JudgedAgainst { get; init; }
+
     public Severity? WorstSeverity => Findings.Count == 0 ? null : Findings.Max(f => f.Severity);
 
     public TimeSpan Elapsed => FinishedAt - StartedAt;

@@ -112,7 +112,11 @@ internal sealed class PairChecker(
                 pair.Name, (long)(finishedAt - startedAt).TotalMilliseconds, profile!.NUsed, profile.PearsonR, profile.Shape, findings.Count);
         }
 
-        return new PairCheckResult(pair, runId, status, run.Error, run.Profile, run.Findings, startedAt, finishedAt, baseline is not null || hasStoredBaseline);
+        return new PairCheckResult(pair, runId, status, run.Error, run.Profile, run.Findings, startedAt, finishedAt, baseline is not null || hasStoredBaseline)
+        {
+            Window = run.SourceFigures,
+            JudgedAgainst = run.JudgedAgainst,
+        };
     }
 
     /// <summary>

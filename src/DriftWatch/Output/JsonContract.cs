@@ -92,7 +92,7 @@ internal static class JsonContract
         where T : struct, Enum => JsonNamingPolicy.SnakeCaseLower.ConvertName(value.ToString());
 
     // The engine promises finite-or-null; the contract enforces it once more at the boundary.
-    private static double? Finite(double? value) => value is { } v && double.IsFinite(v) ? v : null;
+    internal static double? Finite(double? value) => value is { } v && double.IsFinite(v) ? v : null;
 
     private static JsonSerializerOptions CreateOptions(bool indented)
     {

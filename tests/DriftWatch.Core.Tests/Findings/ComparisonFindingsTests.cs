@@ -199,13 +199,13 @@ public sealed class ComparisonFindingsTests
     }
 
     [Fact]
-    public void Compare_AQuarterOfTheRows_IsSampleShrank()
+    public void Compare_TwoExtractsOfDifferentLengths_AreNotASampleShrank()
     {
+        // Two extracts are as long as they were cut; only runs of one window have comparable row counts
+        // (BaselineRunsTests covers the window's exact counts).
         var findings = Compare(Scenarios.Sample(Scenarios.Draw(seed: 18, n: 500)));
 
-        var f = Single(findings, FindingKind.SampleShrank);
-        Assert.Equal(0.25, f.Effect!.Value, 12);
-        Assert.DoesNotContain(findings, g => g.Kind is FindingKind.CorrelationShift or FindingKind.SlopeShift);
+        Assert.DoesNotContain(findings, g => g.Kind is FindingKind.SampleShrank or FindingKind.CorrelationShift or FindingKind.SlopeShift);
     }
 
     [Fact]

@@ -68,6 +68,34 @@ public sealed class CheckCommandTests : IDisposable
         Assert.Equal(_x.Length, profile.GetProperty("n_used").GetInt32());
         // Oracle: MathNet.Numerics' Pearson over the same 400 rows.
         Assert.Equal(Correlation.Pearson(_x, _y), profile.GetProperty("pearson_r").GetDouble(), 12);
+
+        // The window's exact figures come from SQLite's own aggregate over the table; MathNet is the oracle for r.
+        var window = pair.GetProperty("window");
+        Assert.Equal(_x.Length, window.GetProperty("rows").GetInt64());
+        Assert.Equal(Correlation.Pearson(_x, _y), window.GetProperty("pearson_r").GetDouble(), 9);
+        Assert.Equal(JsonValueKind.Null, pair.GetProperty("judged_against").ValueKind);
+    }
+
+    [Fact]
+    public async Task Check_AfterTheBaseline_RecordsTheBaselineItWasJudgedAgainst()
+    {
+        Assert.Equal(0, (await CliRun.Of("check", "--config", ConfigPath)).ExitCode);
+        Assert.Equal(0, (await CliRun.Of("check", "--config", ConfigPath)).ExitCode);
+
+        var run = await CliRun.Of("check", "--config", ConfigPath, "--format", "json");
+
+        Assert.Equal(0, run.ExitCode);
+        using var json = JsonDocument.Parse(run.Out);
+        var judged = json.RootElement.GetProperty("pairs")[0].GetProperty("judged_against");
+        Assert.Equal(2, judged.GetProperty("run_count").GetInt32());
+
+        // Both baseline runs read the same 400 rows: their mean r is MathNet's r of those rows.
+        Assert.Equal(Correlation.Pearson(_x, _y), judged.GetProperty("pearson_r").GetDouble(), 9);
+        Assert.Equal(_x.Length, judged.GetProperty("rows").GetDouble(), 9);
+
+        var history = await CliRun.Of("history", "hours-vs-pallets", "--config", ConfigPath, "--format", "json");
+        using var runs = JsonDocument.Parse(history.Out);
+        Assert.Equal(2, runs.RootElement.GetProperty("runs")[0].GetProperty("judged_against").GetProperty("run_count").GetInt32());
     }
 
     [Fact]

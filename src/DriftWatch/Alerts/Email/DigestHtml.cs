@@ -125,7 +125,7 @@ internal static class DigestHtml
             .Append("<tr><th style=\"").Append(cell).Append("text-align:left;color:#6B7280;font-weight:600;\"></th>")
             .Append("<th style=\"").Append(cell).Append("text-align:right;color:#6B7280;font-weight:600;\">baseline</th>")
             .Append("<th style=\"").Append(cell).Append("text-align:right;color:#6B7280;font-weight:600;\">current</th></tr>\n");
-        foreach (var row in DigestFigures.Rows(section.Context.Baseline, section.Context.Current))
+        foreach (var row in DigestFigures.Rows(section.Context))
         {
             html.Append("<tr><td style=\"").Append(cell).Append("\">").Append(H(row.Name)).Append("</td>")
                 .Append("<td style=\"").Append(cell).Append("text-align:right;font-variant-numeric:tabular-nums;\">").Append(H(row.Baseline)).Append("</td>")

@@ -69,7 +69,7 @@ internal static class DigestPlainText
 
     private static void Table(StringBuilder text, PairSection section)
     {
-        var rows = DigestFigures.Rows(section.Context.Baseline, section.Context.Current);
+        var rows = DigestFigures.Rows(section.Context);
         var nameWidth = rows.Max(r => r.Name.Length);
         var valueWidth = Math.Max(8, rows.Max(r => Math.Max(r.Baseline.Length, r.Current.Length)));
         text.Append("  ").Append(new string(' ', nameWidth)).Append("  ").Append("baseline".PadLeft(valueWidth)).Append("  ").Append("current".PadLeft(valueWidth)).Append('\n');

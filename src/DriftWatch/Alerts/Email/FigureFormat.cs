@@ -7,7 +7,7 @@ internal static class FigureFormat
 {
     public const string Missing = "—";
 
-    public static string Count(int? value) => value?.ToString("N0", CultureInfo.InvariantCulture) ?? Missing;
+    public static string Count(long? value) => value?.ToString("N0", CultureInfo.InvariantCulture) ?? Missing;
 
     public static string Correlation(double? value) => value?.ToString("0.000", CultureInfo.InvariantCulture) ?? Missing;
 

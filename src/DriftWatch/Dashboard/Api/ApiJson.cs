@@ -35,7 +35,9 @@ internal sealed record RunJson(
     string? Error,
     string? SampleMethod,
     ProfileJson? Profile,
-    IReadOnlyList<FindingJson> Findings);
+    IReadOnlyList<FindingJson> Findings,
+    WindowJson? Window,
+    JudgedAgainstJson? JudgedAgainst);
 
 internal sealed record BaselineJson(
     string Policy,

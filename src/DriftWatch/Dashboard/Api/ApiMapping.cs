@@ -41,7 +41,9 @@ internal static class ApiMapping
             run.Error,
             run.SampleMethod,
             run.Profile is null ? null : JsonContract.ToJson(run.Profile),
-            [.. run.Findings.Select(JsonContract.ToJson)]);
+            [.. run.Findings.Select(JsonContract.ToJson)],
+            WindowJson.Of(run.SourceFigures),
+            JudgedAgainstJson.Of(run.JudgedAgainst));
     }
 
     public static BaselineJson ToJson(StoredBaseline baseline)

@@ -127,7 +127,21 @@ internal static class PairPage
             html.Close("ul");
         }
 
+        if (latest.JudgedAgainst is { } judged)
+        {
+            html.Element("p", JudgedAgainstText(latest, judged), ("class", "muted judged-against"));
+        }
+
         html.Close("section");
+    }
+
+    /// <summary>The baseline this run was compared with, as recorded with the run, and the window's exact row count.</summary>
+    private static string JudgedAgainstText(Core.History.RunRecord run, Core.History.BaselineSummary b)
+    {
+        var window = run.SourceFigures is { } f ? $"The window held {Display.Number(f.RowCount)} rows. " : string.Empty;
+        return $"{window}Judged against the baseline built {Display.Time(b.CreatedAt)} from {Display.Count(b.RunCount)} runs"
+            + $" ({Display.Time(b.CoversFrom)} to {Display.Time(b.CoversTo)}{(b.Accepted ? ", accepted" : string.Empty)}):"
+            + $" r {Display.Number(b.PearsonR)}, slope {Display.Number(b.Slope)}, about {Display.Number(b.Rows)} rows per run.";
     }
 
     /// <summary>Only a pair with a baseline can look "as it did"; without one, say what is still missing.</summary>
