@@ -65,7 +65,7 @@ public static class FindingEngine
     {
         ArgumentNullException.ThrowIfNull(t);
         var view = baseline is null ? null : BaselineView.Of(baseline, baselineSample ?? PairedSample.Empty, null, t, compareRowCounts: false);
-        return Assess(current, currentSample, null, view, expect, t, xName, yName, default);
+        return Assess(current, currentSample, null, view, expect, t, xName, yName, default, []);
     }
 
     /// <summary>
@@ -75,6 +75,7 @@ public static class FindingEngine
     /// </summary>
     /// <param name="exact">The source's exact whole-window figures for this run, when it computed them.</param>
     /// <param name="at">When the run started (weekday-aware comparisons); default when unknown.</param>
+    /// <param name="previous">The pair's previous run's findings: a change it raised is confirmed at a relaxed level (<see cref="Confirmation"/>).</param>
     public static IReadOnlyList<Finding> Assess(
         RelationshipProfile current,
         PairedSample currentSample,
@@ -84,11 +85,12 @@ public static class FindingEngine
         Thresholds t,
         string xName = "x",
         string yName = "y",
-        DateTimeOffset at = default)
+        DateTimeOffset at = default,
+        IReadOnlyList<Finding>? previous = null)
     {
         ArgumentNullException.ThrowIfNull(t);
         var view = baseline is null ? null : BaselineView.Of(baseline.Profile, baseline.Points, baseline.Runs, t);
-        return Assess(current, currentSample, exact, view, expect, t, xName, yName, at);
+        return Assess(current, currentSample, exact, view, expect, t, xName, yName, at, previous ?? []);
     }
 
     private static IReadOnlyList<Finding> Assess(
@@ -100,7 +102,8 @@ public static class FindingEngine
         Thresholds t,
         string xName,
         string yName,
-        DateTimeOffset at)
+        DateTimeOffset at,
+        IReadOnlyList<Finding> previous)
     {
         ArgumentNullException.ThrowIfNull(current);
         ArgumentNullException.ThrowIfNull(currentSample);
@@ -117,6 +120,13 @@ public static class FindingEngine
         var comparison = baseline is null
             ? []
             : ComparisonFindings.Of(current, RunFigures.Of(0, at, current, exact, t), currentSample, baseline, expect, t, names);
+        if (baseline is not null && previous.Any(p => p.Severity >= Severity.Warning))
+        {
+            var relaxedThresholds = Confirmation.Relaxed(t);
+            var relaxed = ComparisonFindings.Of(current, RunFigures.Of(0, at, current, exact, relaxedThresholds), currentSample, baseline, expect, relaxedThresholds, names);
+            comparison.AddRange(Confirmation.Of(comparison, relaxed, previous));
+        }
+
         return FindingDeduplication.Merge(own, comparison, current, baseline?.Pooled, t);
     }
 }

@@ -46,7 +46,9 @@ internal sealed class PairChecker(
             if (unmeasurable is null)
             {
                 baseline = await baselines.GetOrBuildAsync(pair, startedAt, cancellationToken);
-                findings = FindingEngine.Assess(profile, sampled.Sample, sampled.Figures, baseline, pair.Expect, pair.Thresholds, pair.X, pair.Y, startedAt);
+                var previous = await store.GetRunsAsync(pair.Name, 1, includePoints: false, cancellationToken, before: startedAt);
+                findings = FindingEngine.Assess(
+                    profile, sampled.Sample, sampled.Figures, baseline, pair.Expect, pair.Thresholds, pair.X, pair.Y, startedAt, previous.Count > 0 ? previous[0].Findings : null);
                 findings = await NameDrivingRowsAsync(adapter, pair, profile, findings, startedAt, cancellationToken);
             }
             else

@@ -168,4 +168,24 @@ public sealed class BaselineRunsTests
         var f = Assert.Single(findings, f => f.Kind == FindingKind.SampleShrank);
         Assert.Equal(0.32, f.Effect!.Value, 2);
     }
+
+    [Fact]
+    public void Assess_ASmallerMoveTheDayAfterASlopeShift_ConfirmsItAtTheRelaxedLevel()
+    {
+        // Slope up 7 %: below the 10 % minimum effect on its own, above the 5 % of the relaxed confirmation level.
+        var sample = Scenarios.Sample(Day(209, slope: 2.14));
+        var profile = Scenarios.Profile(sample);
+        var yesterday = new Finding(FindingKind.SlopeShift, Severity.Warning, 1e-6, 1.16, "slope up");
+        var baseline = Baseline();
+
+        var alone = FindingEngine.Assess(profile, sample, (SourceFigures?)null, baseline, PairExpectation.Default, Thresholds.Default);
+        var confirmed = FindingEngine.Assess(profile, sample, null, baseline, PairExpectation.Default, Thresholds.Default, previous: [yesterday]);
+        var opposite = FindingEngine.Assess(profile, sample, null, baseline, PairExpectation.Default, Thresholds.Default, previous: [yesterday with { Effect = 0.84 }]);
+
+        Assert.DoesNotContain(alone, f => f.Kind == FindingKind.SlopeShift);
+        var f = Assert.Single(confirmed, f => f.Kind == FindingKind.SlopeShift);
+        Assert.Equal(Severity.Warning, f.Severity);
+        Assert.Contains("confirms the previous run's finding", f.Message, StringComparison.Ordinal);
+        Assert.DoesNotContain(opposite, f => f.Kind == FindingKind.SlopeShift);
+    }
 }
