@@ -81,7 +81,7 @@ public sealed class ApiEndpointTests(DashboardFixture fixture)
         var perfect = open.Single(a => a.GetProperty("pair").GetString() == DashboardScenario.Perfect && a.GetProperty("kind").GetString() == "became_perfect");
         Assert.Equal("confirmed", perfect.GetProperty("status").GetString());
         // Critical findings are confirmed at the first run (alerting.critical_confirm_runs = 1): the first exact cycle, 12, plus a minute.
-        Assert.Equal(DashboardScenario.Start + DashboardScenario.Interval * 12 + TimeSpan.FromMinutes(1), perfect.GetProperty("fired_at").GetDateTimeOffset());
+        Assert.Equal(DashboardScenario.Start + DashboardScenario.Interval * 12 + TimeSpan.FromMinutes(1), perfect.GetProperty("confirmed_at").GetDateTimeOffset());
         Assert.Equal(4, perfect.GetProperty("consecutive_runs").GetInt32());
         var failing = open.Single(a => a.GetProperty("kind").GetString() == "check_failing");
         Assert.Equal(3, failing.GetProperty("consecutive_runs").GetInt32());
