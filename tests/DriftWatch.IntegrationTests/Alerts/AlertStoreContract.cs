@@ -24,8 +24,9 @@ public abstract class AlertStoreContract
 
         var versions = await connection.QueryAsync<int>("SELECT version FROM schema_migrations ORDER BY version");
 
-        // 001 history, 002 alerts, 003 worker state, 004 unmeasurable runs: all of them, in order.
-        Assert.Equal([1, 2, 3, 4, 5], versions);
+        // 001 history, 002 alerts, 003 worker state, 004 unmeasurable runs, 005 baseline runs, 006 alert
+        // vocabulary: all of them, in order.
+        Assert.Equal([1, 2, 3, 4, 5, 6], versions);
     }
 
     [Fact]
@@ -249,5 +250,5 @@ public abstract class AlertStoreContract
         new(0, pair, kind, severity, status, 1, T0, T0, status == AlertStatus.Confirmed ? T0 : null, null, null, null, $"{pair} {kind}", 42);
 
     private static OutboxMessage Message(string id) =>
-        new(id, "team", ChannelKind.Smtp, T0, "[DriftWatch] test", ["a@example.org", "b@example.org"], [1, 2, 3]);
+        new(id, "team", ChannelKind.Smtp, T0, "DriftWatch · test", ["a@example.org", "b@example.org"], [1, 2, 3]);
 }

@@ -26,7 +26,7 @@ public sealed class FileChannelTests : IDisposable
         Assert.EndsWith(".eml", path, StringComparison.Ordinal);
         Assert.Equal(queued.Mime, await File.ReadAllBytesAsync(path));
         using var message = await MimeMessage.LoadAsync(path);
-        Assert.Equal("[DriftWatch] CRITICAL: 1 alert — weighed_vs_declared became perfect", message.Subject);
+        Assert.Equal("DriftWatch · weighed_vs_declared: became perfect (critical)", message.Subject);
         Assert.Equal(queued.MessageId, message.MessageId);
         Assert.Equal("audit@example.org", message.To.Mailboxes.Single().Address);
         Assert.Single(message.BodyParts.OfType<TextPart>(), p => p.IsPlain);

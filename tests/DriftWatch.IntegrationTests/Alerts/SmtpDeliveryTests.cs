@@ -35,7 +35,7 @@ public sealed class SmtpDeliveryTests : IDisposable
         Assert.Equal(["data@example.org", "analyst@example.org"], team.To.Mailboxes.Select(a => a.Address));
         Assert.Equal("driftwatch@example.org", team.From.Mailboxes.Single().Address);
         // Both critical and new; ties order by pair name, so fuel_vs_distance is the one the subject names.
-        Assert.Equal("[DriftWatch] CRITICAL: 2 alerts — fuel_vs_distance flipped sign", team.Subject);
+        Assert.Equal("DriftWatch · fuel_vs_distance: sign flipped (critical) +1 more", team.Subject);
         Assert.Equal(team.Subject, server.ReceivedEmail.Single(m => m.ToAddresses.Any(a => a.Address == "data@example.org")).Subject);
 
         var plain = Assert.Single(team.BodyParts.OfType<TextPart>(), p => p.IsPlain).Text;

@@ -218,7 +218,7 @@ internal sealed class DashboardScenario : IAsyncDisposable
     private static OutboxMessage Message(AlertNotification notification, DateTimeOffset at, int index)
     {
         var alert = notification.Alert;
-        var subject = $"[DriftWatch] {JsonName(notification.Kind)}: {alert.Pair} {JsonName(alert.Kind)}";
+        var subject = $"DriftWatch · {alert.Pair}: {JsonName(alert.Kind)} ({JsonName(notification.Kind)})";
         var id = string.Create(CultureInfo.InvariantCulture, $"<{at.ToUnixTimeMilliseconds()}.{index}@driftwatch.test>");
         var mime = Encoding.ASCII.GetBytes($"Message-Id: {id}\r\nSubject: {subject}\r\n\r\n{alert.Message}\r\n");
         return new OutboxMessage(id, "oncall", ChannelKind.Smtp, at + TimeSpan.FromMinutes(1), subject, ["data-oncall@example.test"], mime);
