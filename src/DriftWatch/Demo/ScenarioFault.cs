@@ -16,7 +16,7 @@ internal sealed record ScenarioFault(
 {
     /// <summary>
     /// Two days: a warning needs two runs in a row before it is confirmed (alerting.warning_confirm_runs), and
-    /// check_failing fires on the third failed check (alerting.check_failing_after).
+    /// check_failing is confirmed on the third failed check (alerting.check_failing_after).
     /// </summary>
     public const int DefaultAllowedLag = 2;
 

@@ -33,7 +33,7 @@ internal static class DigestSubject
     }
 }
 
-/// <summary>The order a digest lists things in: worst first, news before reminders, recoveries last.</summary>
+/// <summary>The order a digest lists things in: worst first, news before reminders, all-clears last.</summary>
 internal static class DigestOrder
 {
     public static IReadOnlyList<DigestItem> Sort(IEnumerable<DigestItem> items) =>
