@@ -14,7 +14,7 @@ internal static class BenchmarkProgram
             return await Cycle.CycleCommand.RunAsync(args[1..]);
         }
 
-        // `-- calibrate [--quick]`: false findings, fired alerts and detection of the statistics (see Calibration/CalibrateCommand.cs).
+        // `-- calibrate [--quick]`: false findings, confirmed alerts and detection of the statistics (see Calibration/CalibrateCommand.cs).
         if (args.Length > 0 && args[0] == Calibration.CalibrateCommand.Name)
         {
             return await Calibration.CalibrateCommand.RunAsync(args[1..]);

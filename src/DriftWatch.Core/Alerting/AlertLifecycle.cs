@@ -4,24 +4,24 @@ using DriftWatch.Core.Findings;
 namespace DriftWatch.Core.Alerting;
 
 /// <summary>
-/// The alert state machine, per (pair, finding kind): pending → firing → resolved. Pure: the caller loads
+/// The alert state machine, per (pair, finding kind): watching → confirmed → cleared. Pure: the caller loads
 /// the open states and snoozes, passes the clock, and stores the decision with its outbox rows in one
 /// transaction. Run the outcomes through <see cref="FalseDiscoveryControl.FilterCycle"/> first.
 /// <list type="bullet">
-/// <item>A kind fires once it was seen in <see cref="AlertingConfig.CriticalPersistence"/> (critical) or
-/// <see cref="AlertingConfig.WarningPersistence"/> (warning) successful runs in a row. Info never fires: it stays
-/// pending, for the dashboard.</item>
-/// <item>check_failing is critical (a pair that cannot be checked is watched by nobody) and fires after
-/// <see cref="AlertingConfig.CheckFailingAfter"/> failed or unmeasurable checks in a row; that count is its persistence.</item>
-/// <item>An info sighting of an alert that already fired keeps it open at its severity, without a notice: a known state.</item>
-/// <item>A successful run without the kind resolves it; a recovery notice goes out only for alerts people were told about.</item>
+/// <item>A kind is confirmed once it was seen in <see cref="AlertingConfig.CriticalConfirmRuns"/> (critical) or
+/// <see cref="AlertingConfig.WarningConfirmRuns"/> (warning) successful runs in a row. Info is never confirmed: it
+/// stays watching, for the dashboard.</item>
+/// <item>check_failing is critical (a pair that cannot be checked is watched by nobody) and is confirmed after
+/// <see cref="AlertingConfig.CheckFailingAfter"/> failed or unmeasurable checks in a row; that count is its confirm runs.</item>
+/// <item>An info sighting of an alert that is already confirmed keeps it open at its severity, without a notice: a known state.</item>
+/// <item>A successful run without the kind clears it; an all-clear notice goes out only for alerts people were told about.</item>
 /// <item>A failed or unmeasurable check leaves the pair's other alerts as they were: nothing was learnt about them.
 /// (An empty window must never close an alert: "no rows" is not "the fault went away".)</item>
-/// <item>Re-notify: a firing, unacknowledged alert confirmed by this run whose last notice is at least
-/// <see cref="AlertingConfig.Renotify"/> old. Escalation (warning to critical while firing) notifies at once,
+/// <item>Reminder: a confirmed, unacknowledged alert seen again in this run whose last notice is at least
+/// <see cref="AlertingConfig.RemindEvery"/> old. Escalation (warning to critical while confirmed) notifies at once,
 /// acknowledged or not, because it is news.</item>
-/// <item>Snoozed pair: states move as usual, nothing is notified. A firing alert nobody heard of is announced
-/// (as fired) at the first confirming run after the snooze ends.</item>
+/// <item>Snoozed pair: states move as usual, nothing is notified. A confirmed alert nobody heard of is announced
+/// (as confirmed) at the first run that sees it again after the snooze ends.</item>
 /// </list>
 /// </summary>
 public static class AlertLifecycle
@@ -84,21 +84,21 @@ public static class AlertLifecycle
         {
             // An info sighting of an alert people were already told about confirms a known state (an exact pair
             // whose baseline is exact too): the alert stays open at its severity and is not announced again.
-            if (finding.Severity == Severity.Info && open.TryGetValue((outcome.Pair, kind), out var known) && known.State.Status == AlertStatus.Firing)
+            if (finding.Severity == Severity.Info && open.TryGetValue((outcome.Pair, kind), out var known) && known.State.Status == AlertStatus.Confirmed)
             {
                 Observe(open, touched, outcome.Pair, kind, known.State.Severity, finding.Message, outcome.RunId, now);
                 continue;
             }
 
             var slot = Observe(open, touched, outcome.Pair, kind, finding.Severity, finding.Message, outcome.RunId, now);
-            var persistence = finding.Severity == Severity.Critical ? config.CriticalPersistence : config.WarningPersistence;
-            MaybeFire(slot, Math.Max(1, persistence), now);
+            var confirmRuns = finding.Severity == Severity.Critical ? config.CriticalConfirmRuns : config.WarningConfirmRuns;
+            MaybeConfirm(slot, Math.Max(1, confirmRuns), now);
             DecideNotice(slot, snoozed, config, now);
         }
 
         foreach (var slot in open.Values.Where(s => s.State.Pair == outcome.Pair && !byKind.ContainsKey(s.State.Kind)).ToArray())
         {
-            Resolve(slot, outcome.RunId, snoozed, now);
+            Clear(slot, outcome.RunId, snoozed, now);
             open.Remove((slot.State.Pair, slot.State.Kind));
             touched.Add(slot);
         }
@@ -109,13 +109,13 @@ public static class AlertLifecycle
         var message = string.IsNullOrWhiteSpace(outcome.Error) ? "The check failed." : outcome.Error;
         var slot = Observe(open, touched, outcome.Pair, FindingKind.CheckFailing, Severity.Critical, message, outcome.RunId, now);
 
-        // The monitor's count from the history is authoritative (it survives alerts being resolved by hand).
+        // The monitor's count from the history is authoritative (it survives alerts being cleared by hand).
         if (outcome.ConsecutiveFailures > 0)
         {
             slot.State = slot.State with { ConsecutiveRuns = outcome.ConsecutiveFailures };
         }
 
-        MaybeFire(slot, Math.Max(1, config.CheckFailingAfter), now);
+        MaybeConfirm(slot, Math.Max(1, config.CheckFailingAfter), now);
         DecideNotice(slot, snoozed, config, now);
     }
 
@@ -135,7 +135,7 @@ public static class AlertLifecycle
         }
         else
         {
-            slot = new Slot(new AlertState(0, pair, kind, severity, AlertStatus.Pending, 1, now, now, null, null, null, null, message, runId))
+            slot = new Slot(new AlertState(0, pair, kind, severity, AlertStatus.Watching, 1, now, now, null, null, null, null, message, runId))
             {
                 Previous = null,
             };
@@ -146,19 +146,19 @@ public static class AlertLifecycle
         return slot;
     }
 
-    private static void MaybeFire(Slot slot, int persistence, DateTimeOffset now)
+    private static void MaybeConfirm(Slot slot, int confirmRuns, DateTimeOffset now)
     {
         var state = slot.State;
-        if (state.Status == AlertStatus.Pending && state.Severity >= Severity.Warning && state.ConsecutiveRuns >= persistence)
+        if (state.Status == AlertStatus.Watching && state.Severity >= Severity.Warning && state.ConsecutiveRuns >= confirmRuns)
         {
-            slot.State = state with { Status = AlertStatus.Firing, FiredAt = now };
+            slot.State = state with { Status = AlertStatus.Confirmed, ConfirmedAt = now };
         }
     }
 
     private static void DecideNotice(Slot slot, bool snoozed, AlertingConfig config, DateTimeOffset now)
     {
         var state = slot.State;
-        if (snoozed || state.Status != AlertStatus.Firing || state.Severity < Severity.Warning)
+        if (snoozed || state.Status != AlertStatus.Confirmed || state.Severity < Severity.Warning)
         {
             return;
         }
@@ -166,15 +166,15 @@ public static class AlertLifecycle
         NotificationKind? kind;
         if (state.LastNotifiedAt is null)
         {
-            kind = state.IsAcked ? null : NotificationKind.Fired;
+            kind = state.IsAcked ? null : NotificationKind.Confirmed;
         }
-        else if (slot.Previous is { Status: AlertStatus.Firing } previous && state.Severity > previous.Severity)
+        else if (slot.Previous is { Status: AlertStatus.Confirmed } previous && state.Severity > previous.Severity)
         {
             kind = NotificationKind.Escalated;
         }
-        else if (!state.IsAcked && now - state.LastNotifiedAt.Value >= config.Renotify)
+        else if (!state.IsAcked && now - state.LastNotifiedAt.Value >= config.RemindEvery)
         {
-            kind = NotificationKind.Renotified;
+            kind = NotificationKind.Reminder;
         }
         else
         {
@@ -188,17 +188,17 @@ public static class AlertLifecycle
         }
     }
 
-    private static void Resolve(Slot slot, long? runId, bool snoozed, DateTimeOffset now)
+    private static void Clear(Slot slot, long? runId, bool snoozed, DateTimeOffset now)
     {
         var wasNotified = slot.State.LastNotifiedAt is not null;
         slot.Previous = slot.State;
         slot.State = slot.State with
         {
-            Status = AlertStatus.Resolved,
-            ResolvedAt = now,
+            Status = AlertStatus.Cleared,
+            ClearedAt = now,
             LastRunId = runId ?? slot.State.LastRunId,
         };
-        slot.Notification = wasNotified && !snoozed ? NotificationKind.Resolved : null;
+        slot.Notification = wasNotified && !snoozed ? NotificationKind.Cleared : null;
     }
 
     private sealed class Slot(AlertState state)

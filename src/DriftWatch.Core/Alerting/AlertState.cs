@@ -3,8 +3,8 @@ using DriftWatch.Core.Findings;
 namespace DriftWatch.Core.Alerting;
 
 /// <summary>
-/// The stored state of one alert: one (pair, kind) from its first sighting to its resolution.
-/// At most one open (pending or firing) alert exists per (pair, kind). <paramref name="Id"/> is 0 until the
+/// The stored state of one alert: one (pair, kind) from its first sighting until a check shows it gone.
+/// At most one open (watching or confirmed) alert exists per (pair, kind). <paramref name="Id"/> is 0 until the
 /// store has written it. <paramref name="ConsecutiveRuns"/> counts the runs in a row that carried the kind
 /// (for check_failing: the failed checks in a row).
 /// </summary>
@@ -17,14 +17,14 @@ public sealed record AlertState(
     int ConsecutiveRuns,
     DateTimeOffset FirstSeen,
     DateTimeOffset LastSeen,
-    DateTimeOffset? FiredAt,
+    DateTimeOffset? ConfirmedAt,
     DateTimeOffset? LastNotifiedAt,
-    DateTimeOffset? ResolvedAt,
+    DateTimeOffset? ClearedAt,
     DateTimeOffset? AckedAt,
     string Message,
     long? LastRunId)
 {
-    public bool IsOpen => Status != AlertStatus.Resolved;
+    public bool IsOpen => Status != AlertStatus.Cleared;
 
     public bool IsAcked => AckedAt is not null;
 }

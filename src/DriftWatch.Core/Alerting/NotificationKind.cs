@@ -3,15 +3,15 @@ namespace DriftWatch.Core.Alerting;
 /// <summary>Why an alert goes into this cycle's digest. Serialised lower-case.</summary>
 public enum NotificationKind
 {
-    /// <summary>It became firing (or a snooze ended on a firing alert nobody was told about).</summary>
-    Fired,
+    /// <summary>It became confirmed (or a snooze ended on a confirmed alert nobody was told about).</summary>
+    Confirmed,
 
-    /// <summary>A firing alert got worse (warning to critical).</summary>
+    /// <summary>A confirmed alert got worse (warning to critical).</summary>
     Escalated,
 
-    /// <summary>Still firing after the re-notify interval, not acknowledged.</summary>
-    Renotified,
+    /// <summary>Still confirmed, not acknowledged, and the last notice is at least the reminder interval old.</summary>
+    Reminder,
 
-    /// <summary>A clean run closed a notified alert: the recovery notice.</summary>
-    Resolved,
+    /// <summary>A check showed a notified alert's finding gone: the all-clear notice.</summary>
+    Cleared,
 }

@@ -4,28 +4,30 @@ namespace DriftWatch.Core.Configuration;
 
 public sealed record AlertingConfig
 {
-    public const int DefaultWarningPersistence = 2;
-    public const int DefaultCriticalPersistence = 1;
+    public const int DefaultWarningConfirmRuns = 2;
+    public const int DefaultCriticalConfirmRuns = 1;
     public const int DefaultCheckFailingAfter = 3;
     public const double DefaultFdrQ = 0.05;
-    public static readonly TimeSpan DefaultRenotify = TimeSpan.FromHours(24);
+    public static readonly TimeSpan DefaultRemindEvery = TimeSpan.FromHours(24);
 
-    public IReadOnlyList<RouteConfig> Routes { get; init; } = [];
+    /// <summary>Who hears about which alerts: each list gets one digest per cycle.</summary>
+    public IReadOnlyList<MailingListConfig> MailingLists { get; init; } = [];
 
     public SmtpConfig? Smtp { get; init; }
 
-    /// <summary>Consecutive runs a warning must persist before it fires.</summary>
-    public int WarningPersistence { get; init; } = DefaultWarningPersistence;
+    /// <summary>Runs in a row that must carry a warning before it is confirmed and people are told.</summary>
+    public int WarningConfirmRuns { get; init; } = DefaultWarningConfirmRuns;
 
-    /// <summary>Consecutive runs a critical finding must persist before it fires.</summary>
-    public int CriticalPersistence { get; init; } = DefaultCriticalPersistence;
+    /// <summary>Runs in a row that must carry a critical finding before it is confirmed and people are told.</summary>
+    public int CriticalConfirmRuns { get; init; } = DefaultCriticalConfirmRuns;
 
-    public TimeSpan Renotify { get; init; } = DefaultRenotify;
+    /// <summary>How long a confirmed, unacknowledged alert waits between reminders.</summary>
+    public TimeSpan RemindEvery { get; init; } = DefaultRemindEvery;
 
     /// <summary>Benjamini–Hochberg q over one cycle's p-value findings; null turns the step off.</summary>
     public double? FdrQ { get; init; } = DefaultFdrQ;
 
-    /// <summary>Failed checks in a row before a check_failing alert is raised.</summary>
+    /// <summary>Failed or unmeasurable checks in a row before a check_failing alert is confirmed.</summary>
     public int CheckFailingAfter { get; init; } = DefaultCheckFailingAfter;
 
     /// <summary>Base URL of the dashboard for links in emails; null leaves links out.</summary>
@@ -38,7 +40,8 @@ public enum ChannelKind
     File,
 }
 
-public sealed record RouteConfig
+/// <summary>One mailing list: its recipients (or, for the file channel, a folder) and the alerts it takes.</summary>
+public sealed record MailingListConfig
 {
     public required string Name { get; init; }
 
@@ -46,12 +49,13 @@ public sealed record RouteConfig
 
     public IReadOnlyList<string> Recipients { get; init; } = [];
 
-    public Severity MinSeverity { get; init; } = Severity.Warning;
+    /// <summary>The lowest severity this list hears about.</summary>
+    public Severity FromSeverity { get; init; } = Severity.Warning;
 
     /// <summary>Only pairs carrying one of these tags; empty matches every pair.</summary>
     public IReadOnlyList<string> Tags { get; init; } = [];
 
-    /// <summary>Inline scatter plots carry sampled data values out of the database; a route may turn them off.</summary>
+    /// <summary>Inline scatter plots carry sampled data values out of the database; a mailing list may turn them off.</summary>
     public bool IncludePlot { get; init; } = true;
 
     /// <summary>For the file channel: the folder .eml files are written to.</summary>

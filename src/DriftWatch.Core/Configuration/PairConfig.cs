@@ -37,7 +37,7 @@ public sealed record PairConfig
 
     public BaselinePolicy Baseline { get; init; } = new();
 
-    /// <summary>Alert route names; empty means every route whose filters match.</summary>
+    /// <summary>Mailing list names; empty means every list whose tag filter matches.</summary>
     public IReadOnlyList<string> Notify { get; init; } = [];
 
     public IReadOnlyList<string> Tags { get; init; } = [];

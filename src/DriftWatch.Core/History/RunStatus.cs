@@ -11,7 +11,7 @@ public enum RunStatus
 
     /// <summary>
     /// The check ran but the window held nothing to measure (no rows, too few usable rows, a constant column):
-    /// not health. Counts toward check_failing like a failure and never resolves an alert.
+    /// not health. Counts toward check_failing like a failure and never clears an alert.
     /// </summary>
     Unmeasurable,
 }

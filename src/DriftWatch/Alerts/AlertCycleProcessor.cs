@@ -8,7 +8,7 @@ namespace DriftWatch.Alerts;
 
 /// <summary>
 /// One alerting cycle, called by the monitor after it has recorded the runs: false-discovery step over the
-/// cycle's p-value findings, lifecycle, routing, one digest per route, and the states plus the outbox rows in
+/// cycle's p-value findings, lifecycle, addressing, one digest per mailing list, and the states plus the outbox rows in
 /// one transaction. Sending is the dispatcher's job (woken here); an SMTP outage cannot lose an alert.
 /// </summary>
 internal sealed class AlertCycleProcessor(
@@ -41,7 +41,7 @@ internal sealed class AlertCycleProcessor(
             .ToArray();
         var outbox = new List<OutboxMessage>();
         var options = new DigestOptions(config.Smtp?.From ?? DigestOptions.DefaultFrom, config.PublicUrl);
-        foreach (var digest in AlertRouter.Route(items, config.Routes))
+        foreach (var digest in AlertAddressing.Address(items, config.MailingLists))
         {
             if (Compose(digest, options, now) is { } message)
             {
@@ -63,9 +63,9 @@ internal sealed class AlertCycleProcessor(
         return new AlertCycleResult(decision, saved, outbox);
     }
 
-    private OutboxMessage? Compose(RoutedDigest digest, DigestOptions options, DateTimeOffset now)
+    private OutboxMessage? Compose(AddressedDigest digest, DigestOptions options, DateTimeOffset now)
     {
-        // Per route: one route's bad configuration (an unparsable recipient, say) never silences the others.
+        // Per mailing list: one list's bad configuration (an unparsable recipient, say) never holds back the others.
         try
         {
             using var message = DigestComposer.Compose(digest, options, now);
@@ -73,7 +73,7 @@ internal sealed class AlertCycleProcessor(
         }
         catch (Exception ex) when (ex is not OperationCanceledException)
         {
-            logger.LogError(ex, "Could not compose the alert digest for route {Route} ({Count} alerts); it is not queued", digest.Route.Name, digest.Items.Count);
+            logger.LogError(ex, "Could not compose the alert digest for mailing list {MailingList} ({Count} alerts); it is not queued", digest.List.Name, digest.Items.Count);
             return null;
         }
     }

@@ -2,10 +2,10 @@ using DriftWatch.Core.Alerting;
 
 namespace DriftWatch.Alerts;
 
-/// <summary>One notification with the context of its pair: the unit routes filter and digests group.</summary>
+/// <summary>One notification with the context of its pair: the unit mailing lists filter and digests group.</summary>
 internal sealed record DigestItem(AlertNotification Notification, AlertPairContext Context)
 {
     public AlertState Alert => Notification.Alert;
 
-    public bool IsActive => Notification.Kind != NotificationKind.Resolved;
+    public bool IsActive => Notification.Kind != NotificationKind.Cleared;
 }

@@ -5,7 +5,7 @@ namespace DriftWatch.Alerts;
 
 /// <summary>
 /// Delivers one stored message. Throws <see cref="ChannelUnavailableException"/> when the channel itself is
-/// down (server unreachable, login refused, folder not writable): the dispatcher then leaves that route's
+/// down (server unreachable, login refused, folder not writable): the dispatcher then leaves that list's
 /// other messages for later. Any other exception is about this message alone.
 /// </summary>
 internal interface IAlertChannel
@@ -14,7 +14,7 @@ internal interface IAlertChannel
 
     /// <param name="entry">The outbox row, with its bytes.</param>
     /// <param name="message">The same bytes, parsed.</param>
-    Task SendAsync(OutboxEntry entry, MimeMessage message, RouteConfig route, CancellationToken cancellationToken);
+    Task SendAsync(OutboxEntry entry, MimeMessage message, MailingListConfig list, CancellationToken cancellationToken);
 }
 
 /// <summary>The channel cannot deliver anything right now; a later attempt may succeed.</summary>

@@ -25,7 +25,7 @@ internal sealed class OutboxDispatchService(
                 {
                     var pruned = await dispatcher.PruneAsync(stoppingToken);
                     lastPrune = time.GetUtcNow();
-                    logger.LogDebug("Pruned {Count} sent messages and resolved alerts", pruned);
+                    logger.LogDebug("Pruned {Count} sent messages and cleared alerts", pruned);
                 }
             }
             catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)

@@ -7,9 +7,9 @@ namespace DriftWatch.Alerts;
 
 /// <summary>
 /// Sends what the outbox holds. Each message is claimed (leased), sent, then marked sent; a failure records the
-/// error and schedules the next attempt with backoff and jitter. When a route's channel is down, that route's
+/// error and schedules the next attempt with backoff and jitter. When a mailing list's channel is down, that list's
 /// other claimed messages wait for their lease to run out instead of each waiting on the same dead server,
-/// while the other routes carry on. Nothing is ever dropped: an outage only delays.
+/// while the other lists carry on. Nothing is ever dropped: an outage only delays.
 /// </summary>
 internal sealed class OutboxDispatcher(
     IAlertStore store,
@@ -43,11 +43,11 @@ internal sealed class OutboxDispatcher(
         }
     }
 
-    /// <summary>Deletes sent messages and resolved alerts past their retention.</summary>
+    /// <summary>Deletes sent messages and cleared alerts past their retention.</summary>
     public Task<int> PruneAsync(CancellationToken cancellationToken)
     {
         var now = time.GetUtcNow();
-        return store.PruneAsync(now - options.SentRetention, now - options.ResolvedRetention, cancellationToken);
+        return store.PruneAsync(now - options.SentRetention, now - options.ClearedRetention, cancellationToken);
     }
 
     private async Task<DispatchResult> DispatchBatchAsync(IReadOnlyList<OutboxEntry> batch, CancellationToken cancellationToken)
@@ -56,7 +56,7 @@ internal sealed class OutboxDispatcher(
         int sent = 0, failed = 0, deferred = 0;
         foreach (var entry in batch)
         {
-            if (down.Contains(entry.Route))
+            if (down.Contains(entry.MailingList))
             {
                 // Claimed but not tried: the lease brings it back once it runs out.
                 deferred++;
@@ -68,7 +68,7 @@ internal sealed class OutboxDispatcher(
                 await SendAsync(entry, cancellationToken);
                 await store.MarkSentAsync(entry.Id, time.GetUtcNow(), cancellationToken);
                 sent++;
-                logger.LogInformation("Sent alert message {MessageId} on route {Route} ({Subject})", entry.MessageId, entry.Route, entry.Subject);
+                logger.LogInformation("Sent alert message {MessageId} on mailing list {MailingList} ({Subject})", entry.MessageId, entry.MailingList, entry.Subject);
             }
             catch (OperationCanceledException) when (cancellationToken.IsCancellationRequested)
             {
@@ -80,7 +80,7 @@ internal sealed class OutboxDispatcher(
                 failed++;
                 if (ex is ChannelUnavailableException)
                 {
-                    down.Add(entry.Route);
+                    down.Add(entry.MailingList);
                 }
 
                 await RecordFailureAsync(entry, ex, cancellationToken);
@@ -92,25 +92,25 @@ internal sealed class OutboxDispatcher(
 
     private async Task SendAsync(OutboxEntry entry, CancellationToken cancellationToken)
     {
-        var route = config.Routes.FirstOrDefault(r => string.Equals(r.Name, entry.Route, StringComparison.Ordinal))
-            ?? throw new ChannelUnavailableException($"Route '{entry.Route}' is no longer configured; the message waits until it is.");
-        if (!_channels.TryGetValue(route.Channel, out var channel))
+        var list = config.MailingLists.FirstOrDefault(r => string.Equals(r.Name, entry.MailingList, StringComparison.Ordinal))
+            ?? throw new ChannelUnavailableException($"Mailing list '{entry.MailingList}' is no longer configured; the message waits until it is.");
+        if (!_channels.TryGetValue(list.Channel, out var channel))
         {
-            throw new ChannelUnavailableException($"No {route.Channel} channel is registered for route '{route.Name}'.");
+            throw new ChannelUnavailableException($"No {list.Channel} channel is registered for mailing list '{list.Name}'.");
         }
 
         var bytes = entry.Mime ?? throw new InvalidOperationException($"Outbox entry {entry.Id} was claimed without its message.");
         using var stream = new MemoryStream(bytes, writable: false);
         using var message = await MimeMessage.LoadAsync(stream, cancellationToken);
-        await channel.SendAsync(entry, message, route, cancellationToken);
+        await channel.SendAsync(entry, message, list, cancellationToken);
     }
 
     private async Task RecordFailureAsync(OutboxEntry entry, Exception ex, CancellationToken cancellationToken)
     {
         var attempt = entry.Attempts + 1;
         var next = time.GetUtcNow() + RetryBackoff.Delay(attempt, options, jitter);
-        logger.LogWarning(ex, "Alert message {MessageId} on route {Route} failed (attempt {Attempt}); next attempt at {NextAttempt}",
-            entry.MessageId, entry.Route, attempt, next);
+        logger.LogWarning(ex, "Alert message {MessageId} on mailing list {MailingList} failed (attempt {Attempt}); next attempt at {NextAttempt}",
+            entry.MessageId, entry.MailingList, attempt, next);
         try
         {
             await store.MarkFailedAsync(entry.Id, ex.Message, next, cancellationToken);

@@ -6,7 +6,7 @@ namespace DriftWatch.Alerts;
 internal sealed record OutboxEntry(
     long Id,
     string MessageId,
-    string Route,
+    string MailingList,
     ChannelKind Channel,
     DateTimeOffset CreatedAt,
     DateTimeOffset NextAttemptAt,

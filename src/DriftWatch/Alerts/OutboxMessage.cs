@@ -8,7 +8,7 @@ namespace DriftWatch.Alerts;
 /// </summary>
 internal sealed record OutboxMessage(
     string MessageId,
-    string Route,
+    string MailingList,
     ChannelKind Channel,
     DateTimeOffset CreatedAt,
     string Subject,

@@ -8,7 +8,7 @@ internal sealed record OutboxOptions
     public static readonly TimeSpan DefaultRetryBase = TimeSpan.FromSeconds(30);
     public static readonly TimeSpan DefaultRetryMax = TimeSpan.FromHours(1);
     public static readonly TimeSpan DefaultSentRetention = TimeSpan.FromDays(30);
-    public static readonly TimeSpan DefaultResolvedRetention = TimeSpan.FromDays(180);
+    public static readonly TimeSpan DefaultClearedRetention = TimeSpan.FromDays(180);
     public const int DefaultBatchSize = 50;
     public const double DefaultJitter = 0.5;
 
@@ -32,6 +32,6 @@ internal sealed record OutboxOptions
     /// <summary>Sent messages are kept this long for audit, then pruned.</summary>
     public TimeSpan SentRetention { get; init; } = DefaultSentRetention;
 
-    /// <summary>Resolved alerts are kept this long, then pruned.</summary>
-    public TimeSpan ResolvedRetention { get; init; } = DefaultResolvedRetention;
+    /// <summary>Cleared alerts are kept this long, then pruned.</summary>
+    public TimeSpan ClearedRetention { get; init; } = DefaultClearedRetention;
 }

@@ -13,7 +13,7 @@ namespace DriftWatch.Cli;
 /// <summary><c>driftwatch alerts list|ack|snooze|unsnooze</c>: the alert states the worker keeps in the store.</summary>
 internal static class AlertsCommand
 {
-    public static readonly TimeSpan RecentlyResolved = TimeSpan.FromDays(7);
+    public static readonly TimeSpan RecentlyCleared = TimeSpan.FromDays(7);
 
     public static Command Create(CliConsole console)
     {
@@ -30,7 +30,7 @@ internal static class AlertsCommand
     {
         var config = ConfigOption.Create();
         var format = CommonOptions.Format();
-        var command = new Command("list", "Open alerts (pending, firing) and those resolved in the last 7 days, newest first, with active snoozes.") { config, format };
+        var command = new Command("list", "Open alerts (watching, confirmed) and those cleared in the last 7 days, newest first, with active snoozes.") { config, format };
         command.SetAction(async (parse, ct) =>
         {
             var loaded = ConfigOption.Load(parse.GetValue(config), console);
@@ -42,24 +42,24 @@ internal static class AlertsCommand
             await using var services = await CliServices.StartAsync(loaded, verbose: false, ct);
             var store = services.GetRequiredService<IAlertStore>();
             var now = services.GetRequiredService<TimeProvider>().GetUtcNow();
-            var alerts = await store.ListAlertsAsync(now - RecentlyResolved, 200, ct);
+            var alerts = await store.ListAlertsAsync(now - RecentlyCleared, 200, ct);
             var snoozes = await store.ListSnoozesAsync(now, ct);
             if (parse.GetValue(format) == OutputFormat.Json)
             {
                 console.Out.WriteLine(JsonContract.Serialize(new AlertListJson(
-                    [.. alerts.Select(a => new AlertJson(a.Id, a.Pair, JsonContract.Name(a.Kind), JsonContract.Name(a.Severity), JsonContract.Name(a.Status), a.FirstSeen, a.FiredAt, a.LastNotifiedAt, a.ResolvedAt, a.AckedAt, a.Message))],
+                    [.. alerts.Select(a => new AlertJson(a.Id, a.Pair, JsonContract.Name(a.Kind), JsonContract.Name(a.Severity), JsonContract.Name(a.Status), a.FirstSeen, a.ConfirmedAt, a.LastNotifiedAt, a.ClearedAt, a.AckedAt, a.Message))],
                     [.. snoozes.Select(s => new SnoozeJson(s.Pair, s.Until, s.Reason))])));
                 return ExitCodes.Healthy;
             }
 
             if (alerts.Count == 0)
             {
-                console.WriteNote("no open alerts and none resolved in the last 7 days");
+                console.WriteNote("no open alerts and none cleared in the last 7 days");
             }
             else
             {
                 var table = new Table().Border(TableBorder.Rounded).Title("[bold]Alerts[/]");
-                table.AddColumns("id", "pair", "kind", "severity", "status", "first seen (UTC)", "fired", "resolved");
+                table.AddColumns("id", "pair", "kind", "severity", "status", "first seen (UTC)", "confirmed", "cleared");
                 foreach (var a in alerts)
                 {
                     table.AddRow(
@@ -69,8 +69,8 @@ internal static class AlertsCommand
                         SeverityStyle.Markup(a.Severity),
                         JsonContract.Name(a.Status) + (a.IsAcked ? " (acked)" : ""),
                         Time(a.FirstSeen),
-                        Time(a.FiredAt),
-                        Time(a.ResolvedAt));
+                        Time(a.ConfirmedAt),
+                        Time(a.ClearedAt));
                 }
 
                 console.Ansi.Write(table);
@@ -94,7 +94,7 @@ internal static class AlertsCommand
     {
         var config = ConfigOption.Create();
         var id = new Argument<long>("ID") { Description = "The alert's id (see 'alerts list')." };
-        var command = new Command("ack", "Acknowledge an open alert: no re-notifications while it keeps firing; it still resolves (with a notice) when the pair recovers.") { id, config };
+        var command = new Command("ack", "Acknowledge an open alert: no reminders while it stays confirmed; it still clears (with a notice) when a check shows it gone.") { id, config };
         command.SetAction(async (parse, ct) =>
         {
             var loaded = ConfigOption.Load(parse.GetValue(config), console);
@@ -124,7 +124,7 @@ internal static class AlertsCommand
         var pair = new Argument<string>("PAIR") { Description = "The pair's name in the configuration." };
         var duration = new Option<string>("--for") { Description = "How long, e.g. 30m, 8h, 2d.", Required = true, HelpName = "DURATION" };
         var reason = new Option<string?>("--reason") { Description = "Why (shown in 'alerts list' and on the dashboard).", HelpName = "TEXT" };
-        var command = new Command("snooze", "Silence a pair's notifications for a while (a planned migration, a known incident); its states are still tracked.") { pair, config, duration, reason };
+        var command = new Command("snooze", "Hold back a pair's notifications for a while (a planned migration, a known incident); its states are still tracked.") { pair, config, duration, reason };
         command.SetAction(async (parse, ct) =>
         {
             var loaded = ConfigOption.Load(parse.GetValue(config), console);
@@ -184,9 +184,9 @@ internal sealed record AlertJson(
     [property: JsonPropertyName("severity")] string Severity,
     [property: JsonPropertyName("status")] string Status,
     [property: JsonPropertyName("first_seen")] DateTimeOffset FirstSeen,
-    [property: JsonPropertyName("fired_at")] DateTimeOffset? FiredAt,
+    [property: JsonPropertyName("confirmed_at")] DateTimeOffset? ConfirmedAt,
     [property: JsonPropertyName("last_notified_at")] DateTimeOffset? LastNotifiedAt,
-    [property: JsonPropertyName("resolved_at")] DateTimeOffset? ResolvedAt,
+    [property: JsonPropertyName("cleared_at")] DateTimeOffset? ClearedAt,
     [property: JsonPropertyName("acked_at")] DateTimeOffset? AckedAt,
     [property: JsonPropertyName("message")] string Message);
 

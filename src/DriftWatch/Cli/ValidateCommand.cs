@@ -31,7 +31,7 @@ internal static class ValidateCommand
                 return ExitCodes.UsageError;
             }
 
-            console.Ansi.MarkupLine($"[green]✓[/] {Markup.Escape(loaded.FilePath ?? "configuration")}: {loaded.Sources.Count} source(s), {loaded.Pairs.Count} pair(s), {loaded.Alerting.Routes.Count} alert route(s)");
+            console.Ansi.MarkupLine($"[green]✓[/] {Markup.Escape(loaded.FilePath ?? "configuration")}: {loaded.Sources.Count} source(s), {loaded.Pairs.Count} pair(s), {loaded.Alerting.MailingLists.Count} mailing list(s)");
             if (parse.GetValue(offline))
             {
                 return ExitCodes.Healthy;

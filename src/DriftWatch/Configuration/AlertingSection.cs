@@ -3,39 +3,37 @@ using DriftWatch.Core.Configuration;
 
 namespace DriftWatch.Configuration;
 
-/// <summary><c>alerting:</c> routes, the SMTP server, persistence, renotify, FDR control and links.</summary>
+/// <summary><c>alerting:</c> mailing lists, the SMTP server, confirm runs, reminders, FDR control and links.</summary>
 internal static class AlertingSection
 {
-    public const int MaxPersistence = 100;
-    public static readonly TimeSpan MaxRenotify = TimeSpan.FromDays(365);
+    public const int MaxConfirmRuns = 100;
+    public static readonly TimeSpan MaxRemindEvery = TimeSpan.FromDays(365);
 
-    public static AlertingConfig Read(MappingReader? reader, out IReadOnlySet<string> declaredRoutes)
+    public static AlertingConfig Read(MappingReader? reader, out IReadOnlySet<string> declaredLists)
     {
         var defaults = new AlertingConfig();
         if (reader is null)
         {
-            declaredRoutes = new HashSet<string>(StringComparer.Ordinal);
+            declaredLists = new HashSet<string>(StringComparer.Ordinal);
             return defaults;
         }
 
         var smtp = SmtpSection.Read(reader.Mapping("smtp", ConfigKeys.Smtp));
-        var routes = RoutesSection.Read(reader, smtpGiven: reader.Has("smtp"), out declaredRoutes);
-        var persistence = reader.Mapping("persistence", ConfigKeys.Persistence);
-        var warning = persistence?.Int("warning", 1, MaxPersistence) ?? defaults.WarningPersistence;
-        var critical = persistence?.Int("critical", 1, MaxPersistence) ?? defaults.CriticalPersistence;
-        persistence?.Done();
-        var renotify = reader.Duration("renotify", TimeSpan.FromMinutes(1), MaxRenotify) ?? defaults.Renotify;
+        var lists = MailingListsSection.Read(reader, smtpGiven: reader.Has("smtp"), out declaredLists);
+        var warning = reader.Int("warning_confirm_runs", 1, MaxConfirmRuns) ?? defaults.WarningConfirmRuns;
+        var critical = reader.Int("critical_confirm_runs", 1, MaxConfirmRuns) ?? defaults.CriticalConfirmRuns;
+        var remindEvery = reader.Duration("remind_every", TimeSpan.FromMinutes(1), MaxRemindEvery) ?? defaults.RemindEvery;
         var fdrQ = ReadFdrQ(reader, defaults.FdrQ);
-        var failingAfter = reader.Int("check_failing_after", 1, MaxPersistence) ?? defaults.CheckFailingAfter;
+        var failingAfter = reader.Int("check_failing_after", 1, MaxConfirmRuns) ?? defaults.CheckFailingAfter;
         var publicUrl = ReadPublicUrl(reader);
         reader.Done();
         return defaults with
         {
-            Routes = routes,
+            MailingLists = lists,
             Smtp = smtp,
-            WarningPersistence = warning,
-            CriticalPersistence = critical,
-            Renotify = renotify,
+            WarningConfirmRuns = warning,
+            CriticalConfirmRuns = critical,
+            RemindEvery = remindEvery,
             FdrQ = fdrQ,
             CheckFailingAfter = failingAfter,
             PublicUrl = publicUrl,

@@ -42,19 +42,18 @@ internal static class ConfigKeys
         ("notify", null),
         ("tags", null));
 
-    public static readonly KeyLevel Route = new(
-        "route", ["name", "channel", "recipients", "min_severity", "tags", "include_plot", "directory"]);
+    public static readonly KeyLevel MailingList = new(
+        "mailing_list", ["name", "channel", "recipients", "from_severity", "tags", "include_plot", "directory"]);
 
     public static readonly KeyLevel Smtp = new("smtp", ["host", "port", "security", "user", "password", "password_file", "from"]);
 
-    public static readonly KeyLevel Persistence = new("persistence", ["warning", "critical"]);
-
     public static readonly KeyLevel Alerting = new(
         "alerting",
-        ("routes", Route),
+        ("mailing_lists", MailingList),
         ("smtp", Smtp),
-        ("persistence", Persistence),
-        ("renotify", null),
+        ("warning_confirm_runs", null),
+        ("critical_confirm_runs", null),
+        ("remind_every", null),
         ("fdr_q", null),
         ("check_failing_after", null),
         ("public_url", null));

@@ -98,15 +98,15 @@ internal static class ConfigLoader
         return MappingReader.Open(context, stream.Documents[0].RootNode, string.Empty, ConfigKeys.Root);
     }
 
-    /// <summary>Sections in dependency order: pairs need the sources, routes and store read before them.</summary>
+    /// <summary>Sections in dependency order: pairs need the sources, mailing lists and store read before them.</summary>
     private static DriftWatchConfig Map(MappingReader root)
     {
         var context = root.Context;
         var sources = SourcesSection.Read(root, out var declaredSources);
         var store = StoreSection.Read(context, root.Mapping("store", ConfigKeys.Store));
-        var alerting = AlertingSection.Read(root.Mapping("alerting", ConfigKeys.Alerting), out var declaredRoutes);
+        var alerting = AlertingSection.Read(root.Mapping("alerting", ConfigKeys.Alerting), out var declaredLists);
         var defaults = DefaultsSection.Read(root.Mapping("defaults", ConfigKeys.Defaults));
-        var pairs = PairsSection.Read(root, defaults, sources, declaredSources, declaredRoutes, store);
+        var pairs = PairsSection.Read(root, defaults, sources, declaredSources, declaredLists, store);
         var dashboard = DashboardSection.Read(root.Mapping("dashboard", ConfigKeys.Dashboard));
         var logging = LoggingSection.Read(root.Mapping("logging", ConfigKeys.Logging));
         root.Done();

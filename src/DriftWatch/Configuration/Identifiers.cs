@@ -22,7 +22,7 @@ internal static partial class Identifiers
             ? null
             : $"'{text}' is not a plain column name; use letters, digits, '_' and '$', starting with a letter or '_' (at most {MaxPartLength})";
 
-    /// <summary>Names of sources, pairs and routes: they appear in URLs, file names and logs.</summary>
+    /// <summary>Names of sources, pairs and mailing lists: they appear in URLs, file names and logs.</summary>
     public static string? CheckName(string text) =>
         OwnName().IsMatch(text)
             ? null

@@ -1,6 +1,6 @@
 namespace DriftWatch.Configuration;
 
-/// <summary>The <c>name</c> of a source, pair or route: required, usable, unique in its list.</summary>
+/// <summary>The <c>name</c> of a source, pair or mailing list: required, usable, unique in its list.</summary>
 internal static class NameSection
 {
     /// <param name="seen">Names so far with the line they were declared on.</param>

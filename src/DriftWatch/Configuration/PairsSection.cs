@@ -4,7 +4,7 @@ namespace DriftWatch.Configuration;
 
 /// <summary>
 /// <c>pairs:</c> each watched column pair with its effective settings: the pair's own keys over the
-/// defaults, its source and routes checked against the ones declared.
+/// defaults, its source and mailing lists checked against the ones declared.
 /// </summary>
 internal static class PairsSection
 {
@@ -16,7 +16,7 @@ internal static class PairsSection
         PairDefaults defaults,
         IReadOnlyList<SourceConfig> sources,
         IReadOnlySet<string> declaredSources,
-        IReadOnlySet<string> routes,
+        IReadOnlySet<string> lists,
         StoreConfig store)
     {
         var pairs = new List<PairConfig>();
@@ -30,7 +30,7 @@ internal static class PairsSection
             }
 
             var errorsBefore = root.Context.ErrorCount;
-            var pair = ReadPair(reader, seen, defaults, declaredSources, routes);
+            var pair = ReadPair(reader, seen, defaults, declaredSources, lists);
             reader.Done();
             if (pair is null || root.Context.ErrorCount > errorsBefore)
             {
@@ -52,7 +52,7 @@ internal static class PairsSection
         Dictionary<string, long> seen,
         PairDefaults defaults,
         IReadOnlySet<string> declaredSources,
-        IReadOnlySet<string> routes)
+        IReadOnlySet<string> lists)
     {
         var name = NameSection.Read(reader, "pair", seen);
         var source = ReadSource(reader, declaredSources);
@@ -70,7 +70,7 @@ internal static class PairsSection
         var expect = ReadExpect(reader.Mapping("expect", ConfigKeys.Expect));
         var thresholds = ThresholdsSection.Read(reader.Mapping("thresholds", ConfigKeys.Thresholds), defaults.Thresholds);
         var baseline = BaselineSection.Read(reader.Mapping("baseline", ConfigKeys.Baseline)) ?? defaults.Baseline;
-        var notify = ReadNotify(reader, routes);
+        var notify = ReadNotify(reader, lists);
         var tags = ReadTags(reader, "tags");
         if (name is null || source is null || x is null || y is null || (table is null && query is null))
         {
@@ -225,14 +225,14 @@ internal static class PairsSection
         return new PairExpectation(direction, exact);
     }
 
-    private static List<string> ReadNotify(MappingReader reader, IReadOnlySet<string> routes)
+    private static List<string> ReadNotify(MappingReader reader, IReadOnlySet<string> lists)
     {
         var names = new List<string>();
         foreach (var (text, at, path) in reader.TextList("notify"))
         {
-            if (!routes.Contains(text))
+            if (!lists.Contains(text))
             {
-                reader.Context.Error(at, path, UnknownName("route", text, routes));
+                reader.Context.Error(at, path, UnknownName("mailing list", text, lists));
                 continue;
             }
 
@@ -245,7 +245,7 @@ internal static class PairsSection
         return names;
     }
 
-    /// <summary>Tags, shared with routes: usable names, duplicates dropped.</summary>
+    /// <summary>Tags, shared with mailing lists: usable names, duplicates dropped.</summary>
     public static IReadOnlyList<string> ReadTags(MappingReader reader, string key)
     {
         var tags = new List<string>();

@@ -19,7 +19,7 @@ using Microsoft.Extensions.Logging;
 namespace DriftWatch.Dashboard;
 
 /// <summary>
-/// The dashboard's routes: pages (/, /pairs/{name}, /alerts), JSON (/api/…), /healthz, /metrics, the sign-in
+/// The dashboard's endpoints: pages (/, /pairs/{name}, /alerts), JSON (/api/…), /healthz, /metrics, the sign-in
 /// form and the embedded assets. Call after <see cref="DashboardServices.Add"/>. Everything is read-only.
 /// </summary>
 internal static class DashboardEndpoints

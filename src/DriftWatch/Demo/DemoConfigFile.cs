@@ -12,7 +12,7 @@ namespace DriftWatch.Demo;
 internal static class DemoConfigFile
 {
     public const string SourceName = "terminal";
-    public const string MailRoute = "ops-mailbox";
+    public const string MailingList = "ops-mailbox";
 
     /// <summary>The PostgreSQL variant reads its connection string from here, so no secret is written to the file.</summary>
     public const string PostgresVariable = "DRIFTWATCH_DEMO_PG";
@@ -88,19 +88,18 @@ internal static class DemoConfigFile
         s.Append(CultureInfo.InvariantCulture, $"""
 
             alerting:
-              routes:
+              mailing_lists:
                 # No mail server needed: each alert digest becomes an .eml file in {DemoFolder.MailFolder}/.
-                - name: {MailRoute}
+                - name: {MailingList}
                   channel: file
                   directory: {DemoFolder.MailFolder}
-                  min_severity: warning
+                  from_severity: warning
                   include_plot: true   # plots carry sampled data values out of the database
-              persistence:
-                warning: 2
-                critical: 1
-              # The demo checks once a day, so the default 24h would repeat every open alert in every day's mail.
-              renotify: 7d
-              # The renamed table fails its check on days {TerminalScenario.RenameDay}, {TerminalScenario.RenameDay + 1} and {TerminalScenario.RenameDay + 2}: the third failure raises check_failing.
+              warning_confirm_runs: 2
+              critical_confirm_runs: 1
+              # The demo checks once a day, so the default 24h would remind of every open alert in every day's mail.
+              remind_every: 7d
+              # The renamed table fails its check on days {TerminalScenario.RenameDay}, {TerminalScenario.RenameDay + 1} and {TerminalScenario.RenameDay + 2}: the third failure confirms check_failing.
               check_failing_after: {checkFailingAfter.ToString(CultureInfo.InvariantCulture)}
 
             dashboard:

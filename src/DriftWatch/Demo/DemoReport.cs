@@ -10,7 +10,7 @@ namespace DriftWatch.Demo;
 /// </summary>
 internal static class DemoReport
 {
-    private static readonly string[] Headers = ["pair", "fault", "injected", "detected", "finding", "alert fired"];
+    private static readonly string[] Headers = ["pair", "fault", "injected", "detected", "finding", "alert confirmed"];
 
     public static void Render(TextWriter output, DemoRun run)
     {
@@ -93,7 +93,7 @@ internal static class DemoReport
     {
         FaultVerdict.Missed => "MISSED",
         FaultVerdict.NotReached => "not reached",
-        FaultVerdict.Pending => "not yet",
+        FaultVerdict.NotYet => "not yet",
         _ => "-",
     };
 }

@@ -47,9 +47,9 @@ internal static class DemoSummary
 
     private static FaultOutcome Judge(ScenarioFault fault, IReadOnlyList<RunRecord> runs, IReadOnlyList<AlertState> alerts, int days)
     {
-        var fired = alerts
-            .Where(a => a.Pair == fault.Pair && a.Kind == fault.Expected && a.FiredAt is { } at && TerminalScenario.DayOf(at) >= fault.Day)
-            .Select(a => (int?)TerminalScenario.DayOf(a.FiredAt!.Value))
+        var confirmed = alerts
+            .Where(a => a.Pair == fault.Pair && a.Kind == fault.Expected && a.ConfirmedAt is { } at && TerminalScenario.DayOf(at) >= fault.Day)
+            .Select(a => (int?)TerminalScenario.DayOf(a.ConfirmedAt!.Value))
             .Min();
         if (fault.Day > days)
         {
@@ -62,9 +62,9 @@ internal static class DemoSummary
         if (fault.Expected == FindingKind.CheckFailing)
         {
             // check_failing is not a finding of a run but the alert lifecycle's verdict on failed runs in a row:
-            // it counts when that alert fired; the evidence is the failed check's error.
+            // it counts when that alert was confirmed; the evidence is the failed check's error.
             var failed = window.FirstOrDefault(r => r.Status is RunStatus.Failed or RunStatus.Unmeasurable);
-            if (failed is not null && fired is { } d && d <= fault.Deadline)
+            if (failed is not null && confirmed is { } d && d <= fault.Deadline)
             {
                 detected = d;
                 evidence = failed.Error;
@@ -84,8 +84,8 @@ internal static class DemoSummary
         }
 
         var verdict = detected is not null ? FaultVerdict.Caught
-            : fault.Deadline > days ? FaultVerdict.Pending
+            : fault.Deadline > days ? FaultVerdict.NotYet
             : FaultVerdict.Missed;
-        return new FaultOutcome(fault, verdict, detected, evidence, fired);
+        return new FaultOutcome(fault, verdict, detected, evidence, confirmed);
     }
 }

@@ -12,12 +12,12 @@ internal enum FaultVerdict
     NotReached,
 
     /// <summary>Injected, not yet seen, and the simulation stopped before its allowed lag ran out.</summary>
-    Pending,
+    NotYet,
 }
 
 /// <param name="DetectedDay">The first day within the allowed lag that showed the expected signal.</param>
 /// <param name="Evidence">The finding's message, or the failed check's error, that counts as the detection.</param>
-/// <param name="AlertDay">The day the (pair, kind) alert fired; null when it did not fire.</param>
+/// <param name="AlertDay">The day the (pair, kind) alert was confirmed; null when it was not.</param>
 internal sealed record FaultOutcome(
     ScenarioFault Fault,
     FaultVerdict Verdict,

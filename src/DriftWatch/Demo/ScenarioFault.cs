@@ -15,8 +15,8 @@ internal sealed record ScenarioFault(
     int AllowedLag = ScenarioFault.DefaultAllowedLag)
 {
     /// <summary>
-    /// Two days: a warning needs two runs in a row before it alerts (alerting.persistence.warning), and
-    /// check_failing fires on the third failed check (alerting.check_failing_after).
+    /// Two days: a warning needs two runs in a row before it is confirmed (alerting.warning_confirm_runs), and
+    /// check_failing is confirmed on the third failed check (alerting.check_failing_after).
     /// </summary>
     public const int DefaultAllowedLag = 2;
 

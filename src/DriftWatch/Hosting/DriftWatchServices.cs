@@ -39,7 +39,7 @@ internal static class DriftWatchServices
         // Hosted services start in registration order: the schema is migrated before anything reads the store.
         services.AddHostedService<StoreMigrationService>();
 
-        // Alerting: lifecycle and outbox in the store, digests composed per route, channels deliver.
+        // Alerting: lifecycle and outbox in the store, digests composed per mailing list, channels deliver.
         services.AddDriftWatchAlerting(config.Alerting);
         services.AddSingleton<AlertEvaluation>();
         return services;

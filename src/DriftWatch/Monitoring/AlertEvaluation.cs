@@ -10,7 +10,7 @@ namespace DriftWatch.Monitoring;
 /// <summary>
 /// Feeds recorded runs to alerting: reads the runs after the durable watermark, builds one outcome and one
 /// digest context per run, and hands them to <see cref="AlertCycleProcessor"/> in cycles that hold at most one
-/// run per pair (so a pair's persistence counts every run). The worker calls it on an interval; <c>check</c>
+/// run per pair (so a pair's confirm runs count every run). The worker calls it on an interval; <c>check</c>
 /// and the demo call it right after their checks: the same path either way.
 /// </summary>
 internal sealed class AlertEvaluation(
@@ -25,7 +25,7 @@ internal sealed class AlertEvaluation(
     private readonly SemaphoreSlim _gate = new(1, 1);
 
     /// <summary>Evaluates every run not yet evaluated; returns the cycles' results.</summary>
-    public async Task<IReadOnlyList<AlertCycleResult>> EvaluatePendingAsync(CancellationToken cancellationToken)
+    public async Task<IReadOnlyList<AlertCycleResult>> EvaluateNewRunsAsync(CancellationToken cancellationToken)
     {
         // One evaluation at a time in this process: the scheduled job and a manual trigger must not interleave.
         await _gate.WaitAsync(cancellationToken);
@@ -114,7 +114,7 @@ internal sealed class AlertEvaluation(
             }
             else if (run.Status == RunStatus.Unmeasurable)
             {
-                // Nothing was learnt about the relationship: counts toward check_failing, resolves nothing.
+                // Nothing was learnt about the relationship: counts toward check_failing, clears nothing.
                 var failures = await ConsecutiveFailuresAsync(pair, run, cancellationToken);
                 outcomes.Add(PairOutcome.Unmeasurable(pair.Name, run.Id, failures, run.Error ?? "no reason was recorded"));
             }

@@ -13,7 +13,7 @@ internal sealed class CheckPass(MonitorCycle cycle, AlertEvaluation alerts, Outb
     public async Task<CheckPassResult> RunAsync(IReadOnlyList<PairConfig> pairs, IProgress<PairCheckResult>? progress, CancellationToken cancellationToken)
     {
         var results = await cycle.RunAsync(pairs, progress, cancellationToken);
-        var cycles = await alerts.EvaluatePendingAsync(cancellationToken);
+        var cycles = await alerts.EvaluateNewRunsAsync(cancellationToken);
         var delivery = await outbox.DispatchDueAsync(cancellationToken);
         return new CheckPassResult(results, cycles, delivery);
     }

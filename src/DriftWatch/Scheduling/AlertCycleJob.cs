@@ -8,5 +8,5 @@ namespace DriftWatch.Scheduling;
 internal sealed class AlertCycleJob(AlertEvaluation evaluation) : IJob
 {
     public async ValueTask Execute(IJobExecutionContext context, CancellationToken cancellationToken) =>
-        await evaluation.EvaluatePendingAsync(cancellationToken);
+        await evaluation.EvaluateNewRunsAsync(cancellationToken);
 }

@@ -9,7 +9,7 @@ namespace DriftWatch.Store;
 internal sealed partial class AlertStore
 {
     private const string OutboxColumns =
-        "id AS Id, message_id AS MessageId, route AS Route, channel AS Channel, created_at_ms AS CreatedAtMs, " +
+        "id AS Id, message_id AS MessageId, mailing_list AS MailingList, channel AS Channel, created_at_ms AS CreatedAtMs, " +
         "next_attempt_at_ms AS NextAttemptAtMs, attempts AS Attempts, last_error AS LastError, sent_at_ms AS SentAtMs, " +
         "subject AS Subject, recipients AS Recipients";
 
@@ -60,7 +60,7 @@ internal sealed partial class AlertStore
             cancellationToken: cancellationToken));
     }
 
-    public async Task<int> PruneAsync(DateTimeOffset sentBefore, DateTimeOffset resolvedBefore, CancellationToken cancellationToken)
+    public async Task<int> PruneAsync(DateTimeOffset sentBefore, DateTimeOffset clearedBefore, CancellationToken cancellationToken)
     {
         await using var connection = await database.OpenAsync(cancellationToken);
         await using var transaction = await connection.BeginTransactionAsync(cancellationToken);
@@ -70,8 +70,8 @@ internal sealed partial class AlertStore
             transaction,
             cancellationToken: cancellationToken));
         var alerts = await connection.ExecuteAsync(new CommandDefinition(
-            "DELETE FROM alerts WHERE status = 'resolved' AND resolved_at_ms < @before",
-            new { before = Ms(resolvedBefore) },
+            "DELETE FROM alerts WHERE status = 'cleared' AND cleared_at_ms < @before",
+            new { before = Ms(clearedBefore) },
             transaction,
             cancellationToken: cancellationToken));
         await transaction.CommitAsync(cancellationToken);
@@ -81,14 +81,14 @@ internal sealed partial class AlertStore
     private static async Task InsertOutboxAsync(DbConnection connection, DbTransaction transaction, OutboxMessage message, CancellationToken cancellationToken) =>
         await connection.ExecuteAsync(new CommandDefinition(
             """
-            INSERT INTO outbox (message_id, route, channel, created_at_ms, next_attempt_at_ms, attempts, subject, recipients, mime)
-            VALUES (@MessageId, @Route, @Channel, @CreatedAtMs, @CreatedAtMs, 0, @Subject, @Recipients, @Mime)
+            INSERT INTO outbox (message_id, mailing_list, channel, created_at_ms, next_attempt_at_ms, attempts, subject, recipients, mime)
+            VALUES (@MessageId, @MailingList, @Channel, @CreatedAtMs, @CreatedAtMs, 0, @Subject, @Recipients, @Mime)
             ON CONFLICT (message_id) DO NOTHING
             """,
             new
             {
                 message.MessageId,
-                message.Route,
+                message.MailingList,
                 Channel = Name(message.Channel),
                 CreatedAtMs = Ms(message.CreatedAt),
                 message.Subject,
@@ -102,7 +102,7 @@ internal sealed partial class AlertStore
     {
         public long Id { get; init; }
         public string MessageId { get; init; } = "";
-        public string Route { get; init; } = "";
+        public string MailingList { get; init; } = "";
         public string Channel { get; init; } = "";
         public long CreatedAtMs { get; init; }
         public long NextAttemptAtMs { get; init; }
@@ -116,7 +116,7 @@ internal sealed partial class AlertStore
         public OutboxEntry ToEntry() => new(
             Id,
             MessageId,
-            Route,
+            MailingList,
             AlertStoreText.Channel(Channel),
             Time(CreatedAtMs),
             Time(NextAttemptAtMs),

@@ -11,14 +11,14 @@ internal sealed partial class AlertStore(IStoreDatabase database) : IAlertStore
 {
     private const string AlertColumns =
         "id AS Id, pair AS Pair, kind AS Kind, severity AS Severity, status AS Status, consecutive_runs AS ConsecutiveRuns, " +
-        "first_seen_ms AS FirstSeenMs, last_seen_ms AS LastSeenMs, fired_at_ms AS FiredAtMs, last_notified_at_ms AS LastNotifiedAtMs, " +
-        "resolved_at_ms AS ResolvedAtMs, acked_at_ms AS AckedAtMs, message AS Message, last_run_id AS LastRunId";
+        "first_seen_ms AS FirstSeenMs, last_seen_ms AS LastSeenMs, confirmed_at_ms AS ConfirmedAtMs, last_notified_at_ms AS LastNotifiedAtMs, " +
+        "cleared_at_ms AS ClearedAtMs, acked_at_ms AS AckedAtMs, message AS Message, last_run_id AS LastRunId";
 
     public async Task<IReadOnlyList<AlertState>> GetOpenAlertsAsync(IReadOnlyCollection<string>? pairs, CancellationToken cancellationToken)
     {
         await using var connection = await database.OpenAsync(cancellationToken);
         var rows = await connection.QueryAsync<AlertRow>(new CommandDefinition(
-            $"SELECT {AlertColumns} FROM alerts WHERE status <> 'resolved' ORDER BY id",
+            $"SELECT {AlertColumns} FROM alerts WHERE status <> 'cleared' ORDER BY id",
             cancellationToken: cancellationToken));
         // Filtering here rather than in SQL keeps one statement for both dialects (no array parameters in SQLite);
         // open alerts are few.
@@ -55,17 +55,17 @@ internal sealed partial class AlertStore(IStoreDatabase database) : IAlertStore
         return saved;
     }
 
-    public async Task<IReadOnlyList<AlertState>> ListAlertsAsync(DateTimeOffset resolvedSince, int limit, CancellationToken cancellationToken, string? pair = null)
+    public async Task<IReadOnlyList<AlertState>> ListAlertsAsync(DateTimeOffset clearedSince, int limit, CancellationToken cancellationToken, string? pair = null)
     {
         await using var connection = await database.OpenAsync(cancellationToken);
         var rows = await connection.QueryAsync<AlertRow>(new CommandDefinition(
             $"""
             SELECT {AlertColumns} FROM alerts
-            WHERE (status <> 'resolved' OR resolved_at_ms >= @since) AND (@pair IS NULL OR pair = @pair)
-            ORDER BY CASE WHEN status = 'resolved' THEN 1 ELSE 0 END, last_seen_ms DESC, id DESC
+            WHERE (status <> 'cleared' OR cleared_at_ms >= @since) AND (@pair IS NULL OR pair = @pair)
+            ORDER BY CASE WHEN status = 'cleared' THEN 1 ELSE 0 END, last_seen_ms DESC, id DESC
             LIMIT @limit
             """,
-            new { since = Ms(resolvedSince), pair, limit },
+            new { since = Ms(clearedSince), pair, limit },
             cancellationToken: cancellationToken));
         return [.. rows.Select(r => r.ToState())];
     }
@@ -82,7 +82,7 @@ internal sealed partial class AlertStore(IStoreDatabase database) : IAlertStore
     {
         await using var connection = await database.OpenAsync(cancellationToken);
         var count = await connection.ExecuteAsync(new CommandDefinition(
-            "UPDATE alerts SET acked_at_ms = @at WHERE id = @id AND status <> 'resolved'",
+            "UPDATE alerts SET acked_at_ms = @at WHERE id = @id AND status <> 'cleared'",
             new { id, at = Ms(at) },
             cancellationToken: cancellationToken));
         return count == 1;
@@ -121,10 +121,10 @@ internal sealed partial class AlertStore(IStoreDatabase database) : IAlertStore
     private static async Task<long> InsertAsync(DbConnection connection, DbTransaction transaction, AlertState state, CancellationToken cancellationToken) =>
         await connection.ExecuteScalarAsync<long>(new CommandDefinition(
             """
-            INSERT INTO alerts (pair, kind, severity, status, consecutive_runs, first_seen_ms, last_seen_ms, fired_at_ms,
-                                last_notified_at_ms, resolved_at_ms, acked_at_ms, message, last_run_id)
-            VALUES (@Pair, @Kind, @Severity, @Status, @ConsecutiveRuns, @FirstSeenMs, @LastSeenMs, @FiredAtMs,
-                    @LastNotifiedAtMs, @ResolvedAtMs, @AckedAtMs, @Message, @LastRunId)
+            INSERT INTO alerts (pair, kind, severity, status, consecutive_runs, first_seen_ms, last_seen_ms, confirmed_at_ms,
+                                last_notified_at_ms, cleared_at_ms, acked_at_ms, message, last_run_id)
+            VALUES (@Pair, @Kind, @Severity, @Status, @ConsecutiveRuns, @FirstSeenMs, @LastSeenMs, @ConfirmedAtMs,
+                    @LastNotifiedAtMs, @ClearedAtMs, @AckedAtMs, @Message, @LastRunId)
             RETURNING id
             """,
             AlertRow.From(state),
@@ -138,7 +138,7 @@ internal sealed partial class AlertStore(IStoreDatabase database) : IAlertStore
         var acked = await connection.QuerySingleOrDefaultAsync<long?>(new CommandDefinition(
             """
             UPDATE alerts SET severity = @Severity, status = @Status, consecutive_runs = @ConsecutiveRuns, last_seen_ms = @LastSeenMs,
-                              fired_at_ms = @FiredAtMs, last_notified_at_ms = @LastNotifiedAtMs, resolved_at_ms = @ResolvedAtMs,
+                              confirmed_at_ms = @ConfirmedAtMs, last_notified_at_ms = @LastNotifiedAtMs, cleared_at_ms = @ClearedAtMs,
                               message = @Message, last_run_id = @LastRunId
             WHERE id = @Id
             RETURNING acked_at_ms
@@ -160,9 +160,9 @@ internal sealed partial class AlertStore(IStoreDatabase database) : IAlertStore
         public long ConsecutiveRuns { get; init; }
         public long FirstSeenMs { get; init; }
         public long LastSeenMs { get; init; }
-        public long? FiredAtMs { get; init; }
+        public long? ConfirmedAtMs { get; init; }
         public long? LastNotifiedAtMs { get; init; }
-        public long? ResolvedAtMs { get; init; }
+        public long? ClearedAtMs { get; init; }
         public long? AckedAtMs { get; init; }
         public string Message { get; init; } = "";
         public long? LastRunId { get; init; }
@@ -177,9 +177,9 @@ internal sealed partial class AlertStore(IStoreDatabase database) : IAlertStore
             ConsecutiveRuns = s.ConsecutiveRuns,
             FirstSeenMs = Ms(s.FirstSeen),
             LastSeenMs = Ms(s.LastSeen),
-            FiredAtMs = Ms(s.FiredAt),
+            ConfirmedAtMs = Ms(s.ConfirmedAt),
             LastNotifiedAtMs = Ms(s.LastNotifiedAt),
-            ResolvedAtMs = Ms(s.ResolvedAt),
+            ClearedAtMs = Ms(s.ClearedAt),
             AckedAtMs = Ms(s.AckedAt),
             Message = s.Message,
             LastRunId = s.LastRunId,
@@ -194,9 +194,9 @@ internal sealed partial class AlertStore(IStoreDatabase database) : IAlertStore
             checked((int)ConsecutiveRuns),
             Time(FirstSeenMs),
             Time(LastSeenMs),
-            Time(FiredAtMs),
+            Time(ConfirmedAtMs),
             Time(LastNotifiedAtMs),
-            Time(ResolvedAtMs),
+            Time(ClearedAtMs),
             Time(AckedAtMs),
             Message,
             LastRunId);

@@ -6,7 +6,7 @@ namespace DriftWatch.Store;
 /// <summary>Alert states, snoozes and the outbox. One implementation serves SQLite and PostgreSQL.</summary>
 internal interface IAlertStore
 {
-    /// <summary>Pending and firing alerts, of the given pairs only when <paramref name="pairs"/> is not null.</summary>
+    /// <summary>Open (watching and confirmed) alerts, of the given pairs only when <paramref name="pairs"/> is not null.</summary>
     Task<IReadOnlyList<AlertState>> GetOpenAlertsAsync(IReadOnlyCollection<string>? pairs, CancellationToken cancellationToken);
 
     /// <summary>Pairs snoozed beyond <paramref name="now"/>, with the end of their snooze.</summary>
@@ -20,15 +20,15 @@ internal interface IAlertStore
     /// </summary>
     Task<IReadOnlyList<AlertState>> ApplyCycleAsync(CycleDecision decision, IReadOnlyList<OutboxMessage> outbox, CancellationToken cancellationToken);
 
-    /// <summary>Open alerts and those resolved at or after <paramref name="resolvedSince"/>, newest first.</summary>
-    Task<IReadOnlyList<AlertState>> ListAlertsAsync(DateTimeOffset resolvedSince, int limit, CancellationToken cancellationToken, string? pair = null);
+    /// <summary>Open alerts and those cleared at or after <paramref name="clearedSince"/>, newest first.</summary>
+    Task<IReadOnlyList<AlertState>> ListAlertsAsync(DateTimeOffset clearedSince, int limit, CancellationToken cancellationToken, string? pair = null);
 
     Task<AlertState?> GetAlertAsync(long id, CancellationToken cancellationToken);
 
     /// <summary>Acknowledges an open alert; false when there is no such open alert.</summary>
     Task<bool> AckAsync(long id, DateTimeOffset at, CancellationToken cancellationToken);
 
-    /// <summary>Silences a pair until <paramref name="until"/> (replacing an earlier snooze).</summary>
+    /// <summary>Snoozes a pair until <paramref name="until"/> (replacing an earlier snooze).</summary>
     Task SnoozeAsync(string pair, DateTimeOffset until, DateTimeOffset now, string? reason, CancellationToken cancellationToken);
 
     Task<bool> UnsnoozeAsync(string pair, CancellationToken cancellationToken);
@@ -48,6 +48,6 @@ internal interface IAlertStore
 
     Task MarkFailedAsync(long id, string error, DateTimeOffset nextAttemptAt, CancellationToken cancellationToken);
 
-    /// <summary>Deletes sent entries sent before <paramref name="sentBefore"/> and alerts resolved before <paramref name="resolvedBefore"/>.</summary>
-    Task<int> PruneAsync(DateTimeOffset sentBefore, DateTimeOffset resolvedBefore, CancellationToken cancellationToken);
+    /// <summary>Deletes sent entries sent before <paramref name="sentBefore"/> and alerts cleared before <paramref name="clearedBefore"/>.</summary>
+    Task<int> PruneAsync(DateTimeOffset sentBefore, DateTimeOffset clearedBefore, CancellationToken cancellationToken);
 }

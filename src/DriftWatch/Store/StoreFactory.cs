@@ -17,7 +17,7 @@ internal static class StoreFactory
         };
     }
 
-    /// <summary>Creates the database and applies pending migrations (safe at every start, from several instances).</summary>
+    /// <summary>Creates the database and applies the migrations not yet applied (safe at every start, from several instances).</summary>
     public static async Task<IStoreDatabase> OpenAsync(StoreConfig config, CancellationToken cancellationToken)
     {
         var database = CreateDatabase(config);

@@ -8,7 +8,7 @@ namespace DriftWatch.Benchmarks.Calibration;
 /// the calibration suite (tests/DriftWatch.Calibration) in full; the report goes to stdout, progress to stderr.
 /// </summary>
 /// <remarks>
-/// A figure of merit of the statistics rather than a speed benchmark: false findings and fired alerts per 1,000
+/// A figure of merit of the statistics rather than a speed benchmark: false findings and confirmed alerts per 1,000
 /// healthy pair-checks and the share of faults caught within two checks, against the bar of issue 9. Exit code
 /// 0 whether or not the bar is met (the report says), 2 for bad options.
 /// </remarks>

@@ -83,7 +83,7 @@ internal static class CycleStages
         });
         await Report(output, "store write of the runs (serial)", write);
 
-        var (_, alerting) = await CycleMeasurement.MeasureAsync(server, () => alerts.EvaluatePendingAsync(ct));
+        var (_, alerting) = await CycleMeasurement.MeasureAsync(server, () => alerts.EvaluateNewRunsAsync(ct));
         await Report(output, "alert evaluation of those runs", alerting);
     }
 

@@ -53,11 +53,11 @@ public sealed partial class DashboardBrowserTests : IAsyncLifetime
         var page = await NewPageAsync();
         await page.GotoAsync(_server.Address + "");
 
-        // Worst first: the firing pair leads; the tally counts one of each state.
+        // Worst first: the confirmed pair leads; the tally counts one of each state.
         var rows = page.Locator("#pairs tbody tr");
         Assert.Equal(4, await rows.CountAsync());
-        Assert.Equal("firing", await rows.Nth(0).GetAttributeAsync("data-status"));
-        Assert.Equal("1", await page.Locator(".tile.st-firing .tile-n").InnerTextAsync());
+        Assert.Equal("confirmed", await rows.Nth(0).GetAttributeAsync("data-status"));
+        Assert.Equal("1", await page.Locator(".tile.st-confirmed .tile-n").InnerTextAsync());
         Assert.Equal("1", await page.Locator(".tile.st-failing .tile-n").InnerTextAsync());
         Assert.Contains("statistical signals, not proof", await page.Locator("footer").InnerTextAsync(), StringComparison.Ordinal);
         await page.ScreenshotAsync(new PageScreenshotOptions { Path = Path.Combine(Screenshots, "dashboard-overview.png"), FullPage = true });
@@ -89,7 +89,7 @@ public sealed partial class DashboardBrowserTests : IAsyncLifetime
         names = await page.Locator("#pairs tbody tr .pair-name").AllInnerTextsAsync();
         Assert.Equal(names.OrderDescending(StringComparer.Ordinal), names);
 
-        // Into the firing pair.
+        // Into the confirmed pair.
         await page.Locator("a.pair-name", new PageLocatorOptions { HasText = DashboardScenario.Perfect }).ClickAsync();
         await page.WaitForURLAsync(new Regex("/pairs/invoices\\.gross_vs_net$"));
         Assert.Contains(DashboardScenario.Perfect, await page.Locator("h1").InnerTextAsync(), StringComparison.Ordinal);
@@ -129,7 +129,7 @@ public sealed partial class DashboardBrowserTests : IAsyncLifetime
             page.RequestFailed += (_, request) => failedRequests.Add(request.Url);
 
             await page.GotoAsync(new Uri(Path.Combine(folder, "index.html")).AbsoluteUri);
-            await page.Locator("select[name=status]").SelectOptionAsync("firing");
+            await page.Locator("select[name=status]").SelectOptionAsync("confirmed");
             Assert.Equal(1, await page.Locator("#pairs tbody tr:visible").CountAsync());
 
             await page.Locator("a.pair-name", new PageLocatorOptions { HasText = DashboardScenario.Perfect }).ClickAsync();

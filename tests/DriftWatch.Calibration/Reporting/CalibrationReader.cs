@@ -51,13 +51,13 @@ internal static class CalibrationReader
     {
         var first = plan.Options.BaselineDays + 1;
         var findings = new Dictionary<string, int>(StringComparer.Ordinal);
-        var fired = new Dictionary<string, int>(StringComparer.Ordinal);
+        var confirmed = new Dictionary<string, int>(StringComparer.Ordinal);
         var families = new List<FamilyCount>();
         var samples = new List<string>();
-        int checks = 0, findingCount = 0, firedCount = 0, unmeasuredBaseline = 0, unmeasuredMonitored = 0;
+        int checks = 0, findingCount = 0, confirmedCount = 0, unmeasuredBaseline = 0, unmeasuredMonitored = 0;
         foreach (var group in plan.Pairs.Where(p => p.Healthy).GroupBy(p => p.Family))
         {
-            int fChecks = 0, fFindings = 0, fFired = 0, fUnmeasured = 0;
+            int fChecks = 0, fFindings = 0, fConfirmed = 0, fUnmeasured = 0;
             foreach (var pair in group)
             {
                 foreach (var run in runs[pair.Name])
@@ -95,24 +95,24 @@ internal static class CalibrationReader
                     }
                 }
 
-                foreach (var alert in alertsOf(pair.Name).Where(a => a.FiredAt is { } at && CalibrationPlan.DayOf(at) >= first))
+                foreach (var alert in alertsOf(pair.Name).Where(a => a.ConfirmedAt is { } at && CalibrationPlan.DayOf(at) >= first))
                 {
-                    fFired++;
-                    Add(fired, JsonContract.Name(alert.Kind));
+                    fConfirmed++;
+                    Add(confirmed, JsonContract.Name(alert.Kind));
                 }
             }
 
             checks += fChecks;
             findingCount += fFindings;
-            firedCount += fFired;
-            families.Add(new FamilyCount(HealthyFamilies.Name(group.Key), group.Count(), fChecks, fFindings, fFired, fUnmeasured));
+            confirmedCount += fConfirmed;
+            families.Add(new FamilyCount(HealthyFamilies.Name(group.Key), group.Count(), fChecks, fFindings, fConfirmed, fUnmeasured));
         }
 
-        var kinds = findings.Keys.Union(fired.Keys)
-            .Select(k => new KindCount(k, findings.GetValueOrDefault(k), fired.GetValueOrDefault(k)))
-            .OrderByDescending(k => k.Findings).ThenByDescending(k => k.Fired).ThenBy(k => k.Kind, StringComparer.Ordinal)
+        var kinds = findings.Keys.Union(confirmed.Keys)
+            .Select(k => new KindCount(k, findings.GetValueOrDefault(k), confirmed.GetValueOrDefault(k)))
+            .OrderByDescending(k => k.Findings).ThenByDescending(k => k.Confirmed).ThenBy(k => k.Kind, StringComparer.Ordinal)
             .ToArray();
-        return new HealthyRates(plan.Pairs.Count(p => p.Healthy), checks, findingCount, firedCount, unmeasuredBaseline, unmeasuredMonitored, kinds, families, samples);
+        return new HealthyRates(plan.Pairs.Count(p => p.Healthy), checks, findingCount, confirmedCount, unmeasuredBaseline, unmeasuredMonitored, kinds, families, samples);
     }
 
     private static FaultOutcome Judge(CalibrationPair pair, int faultDay, IReadOnlyList<RunRecord> runs, AlertState[] alerts, int rows)
@@ -120,12 +120,12 @@ internal static class CalibrationReader
         var fault = pair.Fault!;
         var last = faultDay + 1;
 
-        // An alert counts when it fired by the second check after injection and was seen from the first one on
-        // (an alert resolved before the fault and fired earlier is not news of it).
+        // An alert counts when it was confirmed by the second check after injection and was seen from the first one on
+        // (an alert cleared before the fault and confirmed earlier is not news of it).
         var inTime = alerts
-            .Where(a => a.FiredAt is { } at && CalibrationPlan.DayOf(at) <= last && CalibrationPlan.DayOf(a.LastSeen) >= faultDay)
+            .Where(a => a.ConfirmedAt is { } at && CalibrationPlan.DayOf(at) <= last && CalibrationPlan.DayOf(a.LastSeen) >= faultDay)
             .ToArray();
-        var caught = inTime.Where(a => fault.Expected.Contains(a.Kind)).OrderBy(a => a.FiredAt).ToArray();
+        var caught = inTime.Where(a => fault.Expected.Contains(a.Kind)).OrderBy(a => a.ConfirmedAt).ToArray();
         var window = runs.Where(r => CalibrationPlan.DayOf(r.StartedAt) is var d && d >= faultDay && d <= last).ToArray();
         var expectedFindings = window.SelectMany(r => r.Findings).Where(f => fault.Expected.Contains(f.Kind)).ToArray();
         // From the two checks' findings, not the alert's stored state, which later days may have changed.
@@ -155,7 +155,7 @@ internal static class CalibrationReader
             pair.Storage.ToString().ToLowerInvariant(),
             rows,
             caught.Length > 0,
-            caught.Length > 0 ? CalibrationPlan.DayOf(caught[0].FiredAt!.Value) : null,
+            caught.Length > 0 ? CalibrationPlan.DayOf(caught[0].ConfirmedAt!.Value) : null,
             inTime.Length > 0,
             [.. inTime.Select(a => JsonContract.Name(a.Kind)).Distinct(StringComparer.Ordinal)],
             severity,

@@ -18,8 +18,8 @@ internal static class CalibrationReport
     /// <summary>The product requirement (issue 9, "The bar"): at most 0.5 warning-or-worse findings per 1,000 healthy pair-checks.</summary>
     public const double BarFindingsPerThousand = 0.5;
 
-    /// <summary>Issue 9: at most 0.1 fired alerts per 1,000 healthy pair-checks.</summary>
-    public const double BarFiredPerThousand = 0.1;
+    /// <summary>Issue 9: at most 0.1 confirmed alerts per 1,000 healthy pair-checks.</summary>
+    public const double BarConfirmedPerThousand = 0.1;
 
     /// <summary>Issue 9: at least 95 % of the faults reach an alert within 2 checks (unit changes critical and named).</summary>
     public const double BarDetectionShare = 0.95;
@@ -97,21 +97,21 @@ internal static class CalibrationReport
     private static void HealthySection(StringBuilder s, HealthyRates h)
     {
         s.AppendLine(Inv, $"(a, b) Healthy pairs, monitored days: {h.Checks:N0} pair-checks");
-        var families = new TextTable("family", ">pairs", ">checks", ">warn+ findings", ">per 1,000", ">fired alerts", ">per 1,000", ">unmeasured runs");
+        var families = new TextTable("family", ">pairs", ">checks", ">warn+ findings", ">per 1,000", ">confirmed alerts", ">per 1,000", ">unmeasured runs");
         foreach (var f in h.ByFamily)
         {
-            families.Add(f.Family, N(f.Pairs), N(f.Checks), N(f.Findings), Rate(f.FindingsPerThousand), N(f.Fired), Rate(f.FiredPerThousand), N(f.Unmeasured));
+            families.Add(f.Family, N(f.Pairs), N(f.Checks), N(f.Findings), Rate(f.FindingsPerThousand), N(f.Confirmed), Rate(f.ConfirmedPerThousand), N(f.Unmeasured));
         }
 
-        families.Add("all", N(h.Pairs), N(h.Checks), N(h.Findings), Rate(h.FindingsPerThousand), N(h.Fired), Rate(h.FiredPerThousand), N(h.UnmeasuredBaseline + h.UnmeasuredMonitored));
+        families.Add("all", N(h.Pairs), N(h.Checks), N(h.Findings), Rate(h.FindingsPerThousand), N(h.Confirmed), Rate(h.ConfirmedPerThousand), N(h.UnmeasuredBaseline + h.UnmeasuredMonitored));
         families.WriteTo(s);
         s.AppendLine();
         if (h.ByKind.Count > 0)
         {
-            var kinds = new TextTable("finding kind", ">warn+ findings", ">per 1,000", ">fired alerts", ">per 1,000");
+            var kinds = new TextTable("finding kind", ">warn+ findings", ">per 1,000", ">confirmed alerts", ">per 1,000");
             foreach (var k in h.ByKind)
             {
-                kinds.Add(k.Kind, N(k.Findings), Rate(HealthyRates.PerThousand(k.Findings, h.Checks)), N(k.Fired), Rate(HealthyRates.PerThousand(k.Fired, h.Checks)));
+                kinds.Add(k.Kind, N(k.Findings), Rate(HealthyRates.PerThousand(k.Findings, h.Checks)), N(k.Confirmed), Rate(HealthyRates.PerThousand(k.Confirmed, h.Checks)));
             }
 
             kinds.WriteTo(s);
@@ -129,7 +129,7 @@ internal static class CalibrationReport
 
     private static void DetectionSection(StringBuilder s, CalibrationResults r)
     {
-        s.AppendLine(Inv, $"(d) Detection: fault on day {r.FaultDay} (d); 'caught' = an alert of an expected kind fired on day d or d+1");
+        s.AppendLine(Inv, $"(d) Detection: fault on day {r.FaultDay} (d); 'caught' = an alert of an expected kind confirmed on day d or d+1");
         var table = new TextTable("fault", "host", "storage", ">rows", "caught", "any alert", "severity", "unit crit/named", "first findings (from day d; @d+1: next day)");
         foreach (var f in r.Faults)
         {
@@ -162,9 +162,9 @@ internal static class CalibrationReport
         var h = r.Healthy;
         s.AppendLine("Against the bar (issue 9)");
         s.AppendLine(Inv, $"  warning-or-worse findings per 1,000 healthy pair-checks  {Rate(h.FindingsPerThousand),8}   bar ≤ {BarFindingsPerThousand}");
-        s.AppendLine(Inv, $"  fired alerts per 1,000 healthy pair-checks               {Rate(h.FiredPerThousand),8}   bar ≤ {BarFiredPerThousand}");
+        s.AppendLine(Inv, $"  confirmed alerts per 1,000 healthy pair-checks           {Rate(h.ConfirmedPerThousand),8}   bar ≤ {BarConfirmedPerThousand}");
         s.AppendLine(Inv, $"  healthy runs that did not measure                        {h.UnmeasuredBaseline + h.UnmeasuredMonitored,8}   bar 0");
-        s.AppendLine(Inv, $"  faults caught within 2 checks (unit: critical + named)   {Pct(r.ShareMeetingBar),8}   bar ≥ {BarDetectionShare:0%}   ({r.FaultsMeetingBar} of {r.Faults.Count}; expected kind fired: {r.FaultsCaught}; any alert: {r.FaultsWithAnyAlert})");
+        s.AppendLine(Inv, $"  faults caught within 2 checks (unit: critical + named)   {Pct(r.ShareMeetingBar),8}   bar ≥ {BarDetectionShare:0%}   ({r.FaultsMeetingBar} of {r.Faults.Count}; expected kind confirmed: {r.FaultsCaught}; any alert: {r.FaultsWithAnyAlert})");
     }
 
     private static string N(int value) => value.ToString("N0", Inv);

@@ -17,7 +17,7 @@ internal sealed record CalibrationResults(
     HealthyRates Healthy,
     IReadOnlyList<FaultOutcome> Faults)
 {
-    /// <summary>Faults whose expected alert fired within two checks and, for unit changes, was critical and named the factor.</summary>
+    /// <summary>Faults whose expected alert was confirmed within two checks and, for unit changes, was critical and named the factor.</summary>
     public int FaultsMeetingBar => Faults.Count(f => f.MeetsBar);
 
     public double ShareMeetingBar => Faults.Count == 0 ? double.NaN : (double)FaultsMeetingBar / Faults.Count;
@@ -29,13 +29,13 @@ internal sealed record CalibrationResults(
 
 /// <summary>
 /// Healthy pairs over the monitored days. <see cref="Findings"/> counts findings of severity warning or worse;
-/// <see cref="Fired"/> counts alerts that reached the fired state on a monitored day.
+/// <see cref="Confirmed"/> counts alerts that reached the confirmed state on a monitored day.
 /// </summary>
 internal sealed record HealthyRates(
     int Pairs,
     int Checks,
     int Findings,
-    int Fired,
+    int Confirmed,
     int UnmeasuredBaseline,
     int UnmeasuredMonitored,
     IReadOnlyList<KindCount> ByKind,
@@ -44,24 +44,24 @@ internal sealed record HealthyRates(
 {
     public double FindingsPerThousand => PerThousand(Findings, Checks);
 
-    public double FiredPerThousand => PerThousand(Fired, Checks);
+    public double ConfirmedPerThousand => PerThousand(Confirmed, Checks);
 
     public static double PerThousand(int count, int checks) => checks == 0 ? double.NaN : 1000.0 * count / checks;
 }
 
 /// <param name="Kind">snake_case, as stored and printed.</param>
-internal sealed record KindCount(string Kind, int Findings, int Fired);
+internal sealed record KindCount(string Kind, int Findings, int Confirmed);
 
 /// <param name="Unmeasured">Runs that did not measure (failed, or any status other than succeeded), baseline days included.</param>
-internal sealed record FamilyCount(string Family, int Pairs, int Checks, int Findings, int Fired, int Unmeasured)
+internal sealed record FamilyCount(string Family, int Pairs, int Checks, int Findings, int Confirmed, int Unmeasured)
 {
     public double FindingsPerThousand => HealthyRates.PerThousand(Findings, Checks);
 
-    public double FiredPerThousand => HealthyRates.PerThousand(Fired, Checks);
+    public double ConfirmedPerThousand => HealthyRates.PerThousand(Confirmed, Checks);
 }
 
 /// <summary>
-/// One faulty pair after injection on day d: <see cref="Caught"/> when an alert of an expected kind fired on day d
+/// One faulty pair after injection on day d: <see cref="Caught"/> when an alert of an expected kind confirmed on day d
 /// or d+1; <see cref="AnyAlert"/> when any alert did; <see cref="FirstFindings"/> lists the findings of the
 /// first run from day d on that had any ("kind severity", "@d+1" when that run was the next day's).
 /// </summary>

@@ -76,7 +76,7 @@ internal sealed record CalibrationOptions(
         var postgres = new Option<bool>("--postgres") { Description = $"Load the source data into a new PostgreSQL database on the server of {PostgresVariable} instead of a SQLite file." };
         var json = new Option<string?>("--json") { Description = "Also write the results as JSON to this file." };
         var quick = new Option<bool>("--quick") { Description = "The small preset: few pairs, each fault type at its main size, fewer days." };
-        var command = new RootCommand("Calibration: healthy pair families and injected faults, day by day through the production check path; false findings, fired alerts and detection read back from the store.")
+        var command = new RootCommand("Calibration: healthy pair families and injected faults, day by day through the production check path; false findings, confirmed alerts and detection read back from the store.")
         {
             pairs, days, baseline, faultDay, seed, postgres, json, quick,
         };

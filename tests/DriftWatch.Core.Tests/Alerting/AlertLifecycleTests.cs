@@ -5,48 +5,48 @@ using DriftWatch.Core.Findings;
 namespace DriftWatch.Core.Tests.Alerting;
 
 // The lifecycle rules under test are DriftWatch's own specification (docs and AlertingConfig defaults);
-// persistence before firing and re-notify intervals are common practice in alerting, the numbers are ours.
+// confirming a signal over runs in a row and repeating unanswered notices are common practice, the numbers are ours.
 public sealed class AlertLifecycleTests
 {
     private static readonly DateTimeOffset T0 = new(2026, 3, 2, 8, 0, 0, TimeSpan.Zero);
 
     [Fact]
-    public void Evaluate_CriticalFinding_FiresOnTheFirstRun()
+    public void Evaluate_CriticalFinding_IsConfirmedOnTheFirstRun()
     {
         var driver = new Driver();
 
         var decision = driver.Run(T0, Ok("orders", Critical(FindingKind.BecamePerfect)));
 
         var alert = Assert.Single(decision.Changes);
-        Assert.Equal(AlertStatus.Firing, alert.Status);
-        Assert.Equal(T0, alert.FiredAt);
+        Assert.Equal(AlertStatus.Confirmed, alert.Status);
+        Assert.Equal(T0, alert.ConfirmedAt);
         Assert.Equal(T0, alert.LastNotifiedAt);
         var notice = Assert.Single(decision.Notifications);
-        Assert.Equal(NotificationKind.Fired, notice.Kind);
+        Assert.Equal(NotificationKind.Confirmed, notice.Kind);
         Assert.Same(alert, notice.Alert);
     }
 
     [Fact]
-    public void Evaluate_Warning_StaysPendingForOneRunAndFiresOnTheSecond()
+    public void Evaluate_Warning_IsWatchedForOneRunAndConfirmedOnTheSecond()
     {
         var driver = new Driver();
 
         var first = driver.Run(T0, Ok("orders", Warning(FindingKind.SlopeShift)));
         var second = driver.Run(T0.AddHours(1), Ok("orders", Warning(FindingKind.SlopeShift)));
 
-        Assert.Equal(AlertStatus.Pending, Assert.Single(first.Changes).Status);
+        Assert.Equal(AlertStatus.Watching, Assert.Single(first.Changes).Status);
         Assert.Empty(first.Notifications);
-        var fired = Assert.Single(second.Changes);
-        Assert.Equal(AlertStatus.Firing, fired.Status);
-        Assert.Equal(2, fired.ConsecutiveRuns);
-        Assert.Equal(T0, fired.FirstSeen);
-        Assert.Equal(NotificationKind.Fired, Assert.Single(second.Notifications).Kind);
+        var confirmed = Assert.Single(second.Changes);
+        Assert.Equal(AlertStatus.Confirmed, confirmed.Status);
+        Assert.Equal(2, confirmed.ConsecutiveRuns);
+        Assert.Equal(T0, confirmed.FirstSeen);
+        Assert.Equal(NotificationKind.Confirmed, Assert.Single(second.Notifications).Kind);
     }
 
     [Fact]
-    public void Evaluate_WarningPersistenceThree_FiresOnlyOnTheThirdRun()
+    public void Evaluate_WarningConfirmRunsThree_ConfirmsOnlyOnTheThirdRun()
     {
-        var driver = new Driver(new AlertingConfig { WarningPersistence = 3 });
+        var driver = new Driver(new AlertingConfig { WarningConfirmRuns = 3 });
 
         var runs = Enumerable.Range(0, 3).Select(i => driver.Run(T0.AddHours(i), Ok("orders", Warning(FindingKind.SlopeShift)))).ToArray();
 
@@ -54,21 +54,21 @@ public sealed class AlertLifecycleTests
     }
 
     [Fact]
-    public void Evaluate_PendingWarningThenCleanRun_ResolvesSilently()
+    public void Evaluate_WatchedWarningThenCleanRun_ClearsQuietly()
     {
         var driver = new Driver();
         driver.Run(T0, Ok("orders", Warning(FindingKind.SlopeShift)));
 
         var clean = driver.Run(T0.AddHours(1), Ok("orders"));
 
-        var resolved = Assert.Single(clean.Changes);
-        Assert.Equal(AlertStatus.Resolved, resolved.Status);
-        Assert.Equal(T0.AddHours(1), resolved.ResolvedAt);
+        var cleared = Assert.Single(clean.Changes);
+        Assert.Equal(AlertStatus.Cleared, cleared.Status);
+        Assert.Equal(T0.AddHours(1), cleared.ClearedAt);
         Assert.Empty(clean.Notifications);
     }
 
     [Fact]
-    public void Evaluate_InfoFinding_NeverFiresNorNotifies()
+    public void Evaluate_InfoFinding_IsNeverConfirmedNorNotified()
     {
         var driver = new Driver();
 
@@ -76,30 +76,30 @@ public sealed class AlertLifecycleTests
 
         Assert.All(runs, r => Assert.Empty(r.Notifications));
         var last = Assert.Single(runs[^1].Changes);
-        Assert.Equal(AlertStatus.Pending, last.Status);
+        Assert.Equal(AlertStatus.Watching, last.Status);
         Assert.Equal(5, last.ConsecutiveRuns);
     }
 
     [Fact]
-    public void Evaluate_StillFiring_RenotifiesOnlyOnceTheIntervalHasPassed()
+    public void Evaluate_StillConfirmed_RemindsOnlyOnceTheIntervalHasPassed()
     {
         var driver = new Driver();
         driver.Run(T0, Ok("orders", Critical(FindingKind.SignFlip)));
 
         var early = driver.Run(T0.AddHours(23), Ok("orders", Critical(FindingKind.SignFlip)));
         var due = driver.Run(T0.AddHours(24), Ok("orders", Critical(FindingKind.SignFlip)));
-        var afterRenotify = driver.Run(T0.AddHours(30), Ok("orders", Critical(FindingKind.SignFlip)));
+        var afterReminder = driver.Run(T0.AddHours(30), Ok("orders", Critical(FindingKind.SignFlip)));
 
         Assert.Empty(early.Notifications);
-        var renotified = Assert.Single(due.Notifications);
-        Assert.Equal(NotificationKind.Renotified, renotified.Kind);
-        Assert.Equal(T0.AddHours(24), renotified.Alert.LastNotifiedAt);
-        Assert.Equal(T0, renotified.Alert.FiredAt);
-        Assert.Empty(afterRenotify.Notifications);
+        var reminder = Assert.Single(due.Notifications);
+        Assert.Equal(NotificationKind.Reminder, reminder.Kind);
+        Assert.Equal(T0.AddHours(24), reminder.Alert.LastNotifiedAt);
+        Assert.Equal(T0, reminder.Alert.ConfirmedAt);
+        Assert.Empty(afterReminder.Notifications);
     }
 
     [Fact]
-    public void Evaluate_CleanRunAfterTheInterval_SendsRecoveryNotRenotify()
+    public void Evaluate_CleanRunAfterTheInterval_SendsAllClearNotReminder()
     {
         var driver = new Driver();
         driver.Run(T0, Ok("orders", Critical(FindingKind.SignFlip)));
@@ -107,14 +107,14 @@ public sealed class AlertLifecycleTests
         var clean = driver.Run(T0.AddHours(25), Ok("orders"));
 
         var notice = Assert.Single(clean.Notifications);
-        Assert.Equal(NotificationKind.Resolved, notice.Kind);
-        Assert.Equal(AlertStatus.Resolved, notice.Alert.Status);
-        Assert.Equal(T0.AddHours(25), notice.Alert.ResolvedAt);
+        Assert.Equal(NotificationKind.Cleared, notice.Kind);
+        Assert.Equal(AlertStatus.Cleared, notice.Alert.Status);
+        Assert.Equal(T0.AddHours(25), notice.Alert.ClearedAt);
         Assert.Empty(driver.Open);
     }
 
     [Fact]
-    public void Evaluate_KindReturnsAfterResolution_OpensANewAlert()
+    public void Evaluate_KindReturnsAfterClearing_OpensANewAlert()
     {
         var driver = new Driver();
         driver.Run(T0, Ok("orders", Critical(FindingKind.SignFlip)));
@@ -125,7 +125,7 @@ public sealed class AlertLifecycleTests
         var alert = Assert.Single(again.Changes);
         Assert.Equal(0, alert.Id);
         Assert.Equal(T0.AddHours(2), alert.FirstSeen);
-        Assert.Equal(NotificationKind.Fired, Assert.Single(again.Notifications).Kind);
+        Assert.Equal(NotificationKind.Confirmed, Assert.Single(again.Notifications).Kind);
         Assert.Equal(2, driver.All.Count);
     }
 
@@ -139,14 +139,14 @@ public sealed class AlertLifecycleTests
         var after = driver.Run(T0.AddHours(13), Ok("orders", Critical(FindingKind.BecamePerfect)));
 
         var tracked = Assert.Single(during.Changes);
-        Assert.Equal(AlertStatus.Firing, tracked.Status);
+        Assert.Equal(AlertStatus.Confirmed, tracked.Status);
         Assert.Null(tracked.LastNotifiedAt);
         Assert.Empty(during.Notifications);
-        Assert.Equal(NotificationKind.Fired, Assert.Single(after.Notifications).Kind);
+        Assert.Equal(NotificationKind.Confirmed, Assert.Single(after.Notifications).Kind);
     }
 
     [Fact]
-    public void Evaluate_SnoozedPair_ResolvesWithoutRecoveryNotice()
+    public void Evaluate_SnoozedPair_ClearsWithoutAllClearNotice()
     {
         var driver = new Driver();
         driver.Run(T0, Ok("orders", Critical(FindingKind.BecamePerfect)));
@@ -154,7 +154,7 @@ public sealed class AlertLifecycleTests
 
         var clean = driver.Run(T0.AddHours(2), Ok("orders"));
 
-        Assert.Equal(AlertStatus.Resolved, Assert.Single(clean.Changes).Status);
+        Assert.Equal(AlertStatus.Cleared, Assert.Single(clean.Changes).Status);
         Assert.Empty(clean.Notifications);
     }
 
@@ -170,7 +170,7 @@ public sealed class AlertLifecycleTests
     }
 
     [Fact]
-    public void Evaluate_AcknowledgedAlert_IsNotRenotifiedButStillResolvesWithRecovery()
+    public void Evaluate_AcknowledgedAlert_GetsNoReminderButStillClearsWithNotice()
     {
         var driver = new Driver();
         driver.Run(T0, Ok("orders", Critical(FindingKind.SignFlip)));
@@ -180,14 +180,14 @@ public sealed class AlertLifecycleTests
         var clean = driver.Run(T0.AddHours(49), Ok("orders"));
 
         Assert.Empty(later.Notifications);
-        Assert.Equal(AlertStatus.Firing, Assert.Single(later.Changes).Status);
+        Assert.Equal(AlertStatus.Confirmed, Assert.Single(later.Changes).Status);
         var notice = Assert.Single(clean.Notifications);
-        Assert.Equal(NotificationKind.Resolved, notice.Kind);
+        Assert.Equal(NotificationKind.Cleared, notice.Kind);
         Assert.Equal(T0.AddHours(1), notice.Alert.AckedAt);
     }
 
     [Fact]
-    public void Evaluate_FiringWarningBecomesCritical_NotifiesEscalationAtOnce()
+    public void Evaluate_ConfirmedWarningBecomesCritical_NotifiesEscalationAtOnce()
     {
         var driver = new Driver();
         driver.Run(T0, Ok("orders", Warning(FindingKind.CorrelationShift)));
@@ -213,7 +213,7 @@ public sealed class AlertLifecycleTests
     }
 
     [Fact]
-    public void Evaluate_CheckFailing_FiresAfterKFailuresAndResolvesOnSuccess()
+    public void Evaluate_CheckFailing_IsConfirmedAfterKFailuresAndClearsOnSuccess()
     {
         var driver = new Driver(new AlertingConfig { CheckFailingAfter = 3 });
 
@@ -221,13 +221,13 @@ public sealed class AlertLifecycleTests
         var success = driver.Run(T0.AddHours(4), Ok("orders"));
 
         Assert.Equal([0, 0, 1], failures.Select(f => f.Notifications.Count));
-        var fired = failures[2].Notifications[0].Alert;
-        Assert.Equal(FindingKind.CheckFailing, fired.Kind);
-        Assert.Equal(Severity.Critical, fired.Severity);
-        Assert.Equal(3, fired.ConsecutiveRuns);
-        Assert.Equal("timeout #3", fired.Message);
+        var confirmed = failures[2].Notifications[0].Alert;
+        Assert.Equal(FindingKind.CheckFailing, confirmed.Kind);
+        Assert.Equal(Severity.Critical, confirmed.Severity);
+        Assert.Equal(3, confirmed.ConsecutiveRuns);
+        Assert.Equal("timeout #3", confirmed.Message);
         var recovery = Assert.Single(success.Notifications);
-        Assert.Equal(NotificationKind.Resolved, recovery.Kind);
+        Assert.Equal(NotificationKind.Cleared, recovery.Kind);
         Assert.Equal(FindingKind.CheckFailing, recovery.Alert.Kind);
     }
 
@@ -241,15 +241,15 @@ public sealed class AlertLifecycleTests
 
         var change = Assert.Single(failed.Changes);
         Assert.Equal(FindingKind.CheckFailing, change.Kind);
-        Assert.Equal(AlertStatus.Pending, change.Status);
+        Assert.Equal(AlertStatus.Watching, change.Status);
         Assert.Empty(failed.Notifications);
-        Assert.Contains(driver.Open, a => a.Kind == FindingKind.SignFlip && a.Status == AlertStatus.Firing);
+        Assert.Contains(driver.Open, a => a.Kind == FindingKind.SignFlip && a.Status == AlertStatus.Confirmed);
     }
 
     [Fact]
-    public void Evaluate_UnmeasurableChecks_NeverResolveAnOpenCriticalAndFireCheckFailingAfterK()
+    public void Evaluate_UnmeasurableChecks_NeverClearAnOpenCriticalAndConfirmCheckFailingAfterK()
     {
-        // An empty window says nothing about the fault: the notified sign_flip must stay firing through every
+        // An empty window says nothing about the fault: the notified sign_flip must stay confirmed through every
         // unmeasurable check, while check_failing counts those checks exactly like failed ones.
         var driver = new Driver(new AlertingConfig { CheckFailingAfter = 3 });
         driver.Run(T0, Ok("orders", Critical(FindingKind.SignFlip)));
@@ -258,9 +258,9 @@ public sealed class AlertLifecycleTests
             .Select(k => driver.Run(T0.AddHours(k), PairOutcome.Unmeasurable("orders", 10 + k, k, "No rows in the window: there is nothing to measure of y against x.")))
             .ToArray();
 
-        Assert.All(empties, d => Assert.DoesNotContain(d.Changes, c => c.Status == AlertStatus.Resolved));
-        Assert.All(empties, d => Assert.DoesNotContain(d.Notifications, n => n.Kind == NotificationKind.Resolved));
-        Assert.Contains(driver.Open, a => a.Kind == FindingKind.SignFlip && a.Status == AlertStatus.Firing);
+        Assert.All(empties, d => Assert.DoesNotContain(d.Changes, c => c.Status == AlertStatus.Cleared));
+        Assert.All(empties, d => Assert.DoesNotContain(d.Notifications, n => n.Kind == NotificationKind.Cleared));
+        Assert.Contains(driver.Open, a => a.Kind == FindingKind.SignFlip && a.Status == AlertStatus.Confirmed);
         Assert.Equal([0, 0, 1], empties.Select(d => d.Notifications.Count));
         var failing = Assert.Single(empties[^1].Notifications).Alert;
         Assert.Equal(FindingKind.CheckFailing, failing.Kind);
@@ -270,30 +270,30 @@ public sealed class AlertLifecycleTests
     }
 
     [Fact]
-    public void Evaluate_SucceededRunAfterUnmeasurable_ResolvesCheckFailing()
+    public void Evaluate_SucceededRunAfterUnmeasurable_ClearsCheckFailing()
     {
         var driver = new Driver(new AlertingConfig { CheckFailingAfter = 1 });
         driver.Run(T0, PairOutcome.Unmeasurable("orders", 1, 1, "Only 4 usable rows."));
 
         var back = driver.Run(T0.AddHours(1), Ok("orders"));
 
-        var resolved = Assert.Single(back.Changes);
-        Assert.Equal(FindingKind.CheckFailing, resolved.Kind);
-        Assert.Equal(AlertStatus.Resolved, resolved.Status);
-        Assert.Equal(NotificationKind.Resolved, Assert.Single(back.Notifications).Kind);
+        var cleared = Assert.Single(back.Changes);
+        Assert.Equal(FindingKind.CheckFailing, cleared.Kind);
+        Assert.Equal(AlertStatus.Cleared, cleared.Status);
+        Assert.Equal(NotificationKind.Cleared, Assert.Single(back.Notifications).Kind);
     }
 
     [Fact]
     public void Evaluate_FailedThenUnmeasurable_CountTogether()
     {
-        // The monitor counts both kinds in one streak; the lifecycle takes its count as the persistence.
+        // The monitor counts both kinds in one streak; the lifecycle takes its count as the confirm runs.
         var driver = new Driver(new AlertingConfig { CheckFailingAfter = 2 });
 
         var failed = driver.Run(T0, PairOutcome.Failure("orders", 1, 1, "connection refused"));
         var empty = driver.Run(T0.AddHours(1), PairOutcome.Unmeasurable("orders", 2, 2, "No rows in the window."));
 
         Assert.Empty(failed.Notifications);
-        Assert.Equal(NotificationKind.Fired, Assert.Single(empty.Notifications).Kind);
+        Assert.Equal(NotificationKind.Confirmed, Assert.Single(empty.Notifications).Kind);
         Assert.Equal(2, Assert.Single(empty.Changes).ConsecutiveRuns);
     }
 

@@ -47,14 +47,14 @@ internal sealed class AlertHarness
 
     public OutboxDispatcher Dispatcher { get; }
 
-    public static AlertingConfig Smtp(int port, params RouteConfig[] routes) => new()
+    public static AlertingConfig Smtp(int port, params MailingListConfig[] lists) => new()
     {
         Smtp = new SmtpConfig { Host = "127.0.0.1", Port = port, Security = SmtpSecurity.None, From = "DriftWatch <driftwatch@example.org>" },
-        Routes = routes,
+        MailingLists = lists,
         PublicUrl = new Uri("http://127.0.0.1:8087/"),
     };
 
-    public static RouteConfig Route(string name, params string[] recipients) => new() { Name = name, Recipients = recipients };
+    public static MailingListConfig MailingList(string name, params string[] recipients) => new() { Name = name, Recipients = recipients };
 
     public static PairConfig Pair(string name, string x = "declared_kg", string y = "weighed_kg") =>
         new() { Name = name, Source = "warehouse", Table = "shipping.parcels", X = x, Y = y };

@@ -24,20 +24,21 @@ public abstract class AlertStoreContract
 
         var versions = await connection.QueryAsync<int>("SELECT version FROM schema_migrations ORDER BY version");
 
-        // 001 history, 002 alerts, 003 worker state, 004 unmeasurable runs: all of them, in order.
-        Assert.Equal([1, 2, 3, 4, 5], versions);
+        // 001 history, 002 alerts, 003 worker state, 004 unmeasurable runs, 005 baseline runs, 006 alert
+        // vocabulary: all of them, in order.
+        Assert.Equal([1, 2, 3, 4, 5, 6], versions);
     }
 
     [Fact]
     public async Task ApplyCycle_NewAndChangedStates_RoundTripWithIds()
     {
         var store = new AlertStore(await DatabaseAsync());
-        var pending = State("orders", FindingKind.SlopeShift, Severity.Warning, AlertStatus.Pending);
-        var firing = State("orders", FindingKind.BecamePerfect, Severity.Critical, AlertStatus.Firing) with { FiredAt = T0, LastNotifiedAt = T0 };
-        var other = State("invoices", FindingKind.NullSurge, Severity.Warning, AlertStatus.Pending);
+        var watching = State("orders", FindingKind.SlopeShift, Severity.Warning, AlertStatus.Watching);
+        var confirmed = State("orders", FindingKind.BecamePerfect, Severity.Critical, AlertStatus.Confirmed) with { ConfirmedAt = T0, LastNotifiedAt = T0 };
+        var other = State("invoices", FindingKind.NullSurge, Severity.Warning, AlertStatus.Watching);
 
-        var saved = await store.ApplyCycleAsync(new CycleDecision(T0, [pending, firing, other], []), [], CancellationToken.None);
-        var later = saved[0] with { Status = AlertStatus.Firing, ConsecutiveRuns = 2, LastSeen = T0.AddHours(1), FiredAt = T0.AddHours(1), Message = "slope doubled" };
+        var saved = await store.ApplyCycleAsync(new CycleDecision(T0, [watching, confirmed, other], []), [], CancellationToken.None);
+        var later = saved[0] with { Status = AlertStatus.Confirmed, ConsecutiveRuns = 2, LastSeen = T0.AddHours(1), ConfirmedAt = T0.AddHours(1), Message = "slope doubled" };
         await store.ApplyCycleAsync(new CycleDecision(T0.AddHours(1), [later], []), [], CancellationToken.None);
 
         Assert.All(saved, s => Assert.True(s.Id > 0));
@@ -51,11 +52,11 @@ public abstract class AlertStoreContract
     public async Task ApplyCycle_OutboxInsertFails_StoresNoAlertChangeEither()
     {
         var store = new AlertStore(await DatabaseAsync());
-        var alert = State("orders", FindingKind.BecamePerfect, Severity.Critical, AlertStatus.Firing) with { LastNotifiedAt = T0 };
+        var alert = State("orders", FindingKind.BecamePerfect, Severity.Critical, AlertStatus.Confirmed) with { LastNotifiedAt = T0 };
         // A NULL subject violates the outbox's NOT NULL constraint inside the transaction.
         var broken = new OutboxMessage("dw-broken@driftwatch.local", "team", ChannelKind.Smtp, T0, null!, [], [1, 2, 3]);
 
-        await Assert.ThrowsAnyAsync<Exception>(() => store.ApplyCycleAsync(new CycleDecision(T0, [alert], [new AlertNotification(alert, NotificationKind.Fired)]), [broken], CancellationToken.None));
+        await Assert.ThrowsAnyAsync<Exception>(() => store.ApplyCycleAsync(new CycleDecision(T0, [alert], [new AlertNotification(alert, NotificationKind.Confirmed)]), [broken], CancellationToken.None));
 
         Assert.Empty(await store.GetOpenAlertsAsync(null, CancellationToken.None));
         Assert.Empty(await store.ListOutboxAsync(false, 10, CancellationToken.None));
@@ -65,7 +66,7 @@ public abstract class AlertStoreContract
     public async Task ApplyCycle_SecondOpenAlertForTheSamePairAndKind_IsRefused()
     {
         var store = new AlertStore(await DatabaseAsync());
-        var alert = State("orders", FindingKind.SignFlip, Severity.Critical, AlertStatus.Firing);
+        var alert = State("orders", FindingKind.SignFlip, Severity.Critical, AlertStatus.Confirmed);
         await store.ApplyCycleAsync(new CycleDecision(T0, [alert], []), [], CancellationToken.None);
 
         await Assert.ThrowsAnyAsync<Exception>(() => store.ApplyCycleAsync(new CycleDecision(T0, [alert with { FirstSeen = T0.AddHours(1) }], []), [], CancellationToken.None));
@@ -90,19 +91,19 @@ public abstract class AlertStoreContract
     }
 
     [Fact]
-    public async Task Ack_OpenAlert_IsKeptAcrossLaterCycles_AndResolvedAlertsCannotBeAcked()
+    public async Task Ack_OpenAlert_IsKeptAcrossLaterCycles_AndClearedAlertsCannotBeAcked()
     {
         var store = new AlertStore(await DatabaseAsync());
-        var saved = (await store.ApplyCycleAsync(new CycleDecision(T0, [State("orders", FindingKind.SignFlip, Severity.Critical, AlertStatus.Firing)], []), [], CancellationToken.None))[0];
+        var saved = (await store.ApplyCycleAsync(new CycleDecision(T0, [State("orders", FindingKind.SignFlip, Severity.Critical, AlertStatus.Confirmed)], []), [], CancellationToken.None))[0];
 
         Assert.True(await store.AckAsync(saved.Id, T0.AddMinutes(5), CancellationToken.None));
         // The lifecycle loaded the state before the ack: its write must not erase the ack.
         var update = await store.ApplyCycleAsync(new CycleDecision(T0.AddHours(1), [saved with { ConsecutiveRuns = 2 }], []), [], CancellationToken.None);
-        var resolved = await store.ApplyCycleAsync(new CycleDecision(T0.AddHours(2), [update[0] with { Status = AlertStatus.Resolved, ResolvedAt = T0.AddHours(2) }], []), [], CancellationToken.None);
+        var cleared = await store.ApplyCycleAsync(new CycleDecision(T0.AddHours(2), [update[0] with { Status = AlertStatus.Cleared, ClearedAt = T0.AddHours(2) }], []), [], CancellationToken.None);
 
         Assert.Equal(T0.AddMinutes(5), update[0].AckedAt);
         Assert.Equal(T0.AddMinutes(5), (await store.GetAlertAsync(saved.Id, CancellationToken.None))!.AckedAt);
-        Assert.False(await store.AckAsync(resolved[0].Id, T0.AddHours(3), CancellationToken.None));
+        Assert.False(await store.AckAsync(cleared[0].Id, T0.AddHours(3), CancellationToken.None));
         Assert.False(await store.AckAsync(999_999, T0, CancellationToken.None));
     }
 
@@ -184,18 +185,18 @@ public abstract class AlertStoreContract
     }
 
     [Fact]
-    public async Task Prune_DropsOldSentMessagesAndOldResolvedAlerts_KeepsTheRest()
+    public async Task Prune_DropsOldSentMessagesAndOldClearedAlerts_KeepsTheRest()
     {
         var store = new AlertStore(await DatabaseAsync());
-        var resolvedOld = State("a", FindingKind.SignFlip, Severity.Critical, AlertStatus.Resolved) with { ResolvedAt = T0 };
-        var resolvedNew = State("b", FindingKind.SignFlip, Severity.Critical, AlertStatus.Resolved) with { ResolvedAt = T0.AddDays(10) };
-        var open = State("c", FindingKind.SignFlip, Severity.Critical, AlertStatus.Firing);
-        await store.ApplyCycleAsync(new CycleDecision(T0, [resolvedOld, resolvedNew, open], []), [Message("dw-old@driftwatch.local"), Message("dw-new@driftwatch.local"), Message("dw-unsent@driftwatch.local")], CancellationToken.None);
+        var clearedOld = State("a", FindingKind.SignFlip, Severity.Critical, AlertStatus.Cleared) with { ClearedAt = T0 };
+        var clearedNew = State("b", FindingKind.SignFlip, Severity.Critical, AlertStatus.Cleared) with { ClearedAt = T0.AddDays(10) };
+        var open = State("c", FindingKind.SignFlip, Severity.Critical, AlertStatus.Confirmed);
+        await store.ApplyCycleAsync(new CycleDecision(T0, [clearedOld, clearedNew, open], []), [Message("dw-old@driftwatch.local"), Message("dw-new@driftwatch.local"), Message("dw-unsent@driftwatch.local")], CancellationToken.None);
         var entries = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), 10, CancellationToken.None);
         await store.MarkSentAsync(entries.Single(e => e.MessageId == "dw-old@driftwatch.local").Id, T0, CancellationToken.None);
         await store.MarkSentAsync(entries.Single(e => e.MessageId == "dw-new@driftwatch.local").Id, T0.AddDays(10), CancellationToken.None);
 
-        var pruned = await store.PruneAsync(sentBefore: T0.AddDays(5), resolvedBefore: T0.AddDays(5), CancellationToken.None);
+        var pruned = await store.PruneAsync(sentBefore: T0.AddDays(5), clearedBefore: T0.AddDays(5), CancellationToken.None);
 
         Assert.Equal(2, pruned);
         Assert.Equal(["dw-new@driftwatch.local", "dw-unsent@driftwatch.local"], (await store.ListOutboxAsync(false, 10, CancellationToken.None)).Select(e => e.MessageId).Order(StringComparer.Ordinal));
@@ -203,14 +204,14 @@ public abstract class AlertStoreContract
     }
 
     [Fact]
-    public async Task ListAlerts_ShowsOpenFirstThenRecentlyResolved()
+    public async Task ListAlerts_ShowsOpenFirstThenRecentlyCleared()
     {
         var store = new AlertStore(await DatabaseAsync());
         await store.ApplyCycleAsync(new CycleDecision(T0,
         [
-            State("old", FindingKind.SignFlip, Severity.Critical, AlertStatus.Resolved) with { ResolvedAt = T0.AddDays(-30) },
-            State("recent", FindingKind.SignFlip, Severity.Critical, AlertStatus.Resolved) with { ResolvedAt = T0.AddDays(-1), LastSeen = T0.AddHours(5) },
-            State("open", FindingKind.SignFlip, Severity.Warning, AlertStatus.Pending),
+            State("old", FindingKind.SignFlip, Severity.Critical, AlertStatus.Cleared) with { ClearedAt = T0.AddDays(-30) },
+            State("recent", FindingKind.SignFlip, Severity.Critical, AlertStatus.Cleared) with { ClearedAt = T0.AddDays(-1), LastSeen = T0.AddHours(5) },
+            State("open", FindingKind.SignFlip, Severity.Warning, AlertStatus.Watching),
         ], []), [], CancellationToken.None);
 
         var listed = await store.ListAlertsAsync(T0.AddDays(-7), 10, CancellationToken.None);
@@ -221,11 +222,11 @@ public abstract class AlertStoreContract
     }
 
     [Fact]
-    public async Task Lifecycle_WarningPersistence_SurvivesARestart()
+    public async Task Lifecycle_WarningConfirmRuns_SurvivesARestart()
     {
         var pair = Pair("orders");
         var finding = new Finding(FindingKind.SlopeShift, Severity.Warning, null, 0.4, "slope moved from 0.5 to 0.9");
-        var config = new AlertingConfig { Routes = [new RouteConfig { Name = "archive", Channel = ChannelKind.File, Directory = Path.GetTempPath() }] };
+        var config = new AlertingConfig { MailingLists = [new MailingListConfig { Name = "archive", Channel = ChannelKind.File, Directory = Path.GetTempPath() }] };
 
         var before = new AlertHarness(await DatabaseAsync(), config);
         var first = await before.CycleAsync((pair, [finding]));
@@ -235,9 +236,9 @@ public abstract class AlertStoreContract
         var second = await after.CycleAsync((pair, [finding]));
 
         Assert.Empty(first.Queued);
-        Assert.Equal(AlertStatus.Pending, Assert.Single(first.Saved).Status);
-        var fired = Assert.Single(second.Saved);
-        Assert.Equal((AlertStatus.Firing, 2, first.Saved[0].Id), (fired.Status, fired.ConsecutiveRuns, fired.Id));
+        Assert.Equal(AlertStatus.Watching, Assert.Single(first.Saved).Status);
+        var confirmed = Assert.Single(second.Saved);
+        Assert.Equal((AlertStatus.Confirmed, 2, first.Saved[0].Id), (confirmed.Status, confirmed.ConsecutiveRuns, confirmed.Id));
         Assert.Single(second.Queued);
         Assert.Single(await after.Store.ListOutboxAsync(true, 10, CancellationToken.None));
     }
@@ -246,8 +247,8 @@ public abstract class AlertStoreContract
     private protected abstract Task<IStoreDatabase> ReopenAsync();
 
     private static AlertState State(string pair, FindingKind kind, Severity severity, AlertStatus status) =>
-        new(0, pair, kind, severity, status, 1, T0, T0, status == AlertStatus.Firing ? T0 : null, null, null, null, $"{pair} {kind}", 42);
+        new(0, pair, kind, severity, status, 1, T0, T0, status == AlertStatus.Confirmed ? T0 : null, null, null, null, $"{pair} {kind}", 42);
 
     private static OutboxMessage Message(string id) =>
-        new(id, "team", ChannelKind.Smtp, T0, "[DriftWatch] test", ["a@example.org", "b@example.org"], [1, 2, 3]);
+        new(id, "team", ChannelKind.Smtp, T0, "DriftWatch · test", ["a@example.org", "b@example.org"], [1, 2, 3]);
 }

@@ -11,10 +11,10 @@ public sealed class FileChannelTests : IDisposable
     private readonly TemporarySqliteStore _file = new();
 
     [Fact]
-    public async Task Dispatch_FileRoute_WritesTheSameMessageAsAnEmlFile()
+    public async Task Dispatch_FileMailingList_WritesTheSameMessageAsAnEmlFile()
     {
         var folder = Path.Combine(_file.Folder, "outbox-files");
-        var config = new AlertingConfig { Routes = [new RouteConfig { Name = "archive", Channel = ChannelKind.File, Directory = folder, Recipients = ["audit@example.org"] }] };
+        var config = new AlertingConfig { MailingLists = [new MailingListConfig { Name = "archive", Channel = ChannelKind.File, Directory = folder, Recipients = ["audit@example.org"] }] };
         var harness = new AlertHarness(await _file.OpenAsync(), config);
 
         var cycle = await harness.CycleAsync((Pair("weighed_vs_declared"), [Critical(FindingKind.BecamePerfect, "weighed_kg equals declared_kg")]));
@@ -26,7 +26,7 @@ public sealed class FileChannelTests : IDisposable
         Assert.EndsWith(".eml", path, StringComparison.Ordinal);
         Assert.Equal(queued.Mime, await File.ReadAllBytesAsync(path));
         using var message = await MimeMessage.LoadAsync(path);
-        Assert.Equal("[DriftWatch] CRITICAL: 1 alert — weighed_vs_declared became perfect", message.Subject);
+        Assert.Equal("DriftWatch · weighed_vs_declared: became perfect (critical)", message.Subject);
         Assert.Equal(queued.MessageId, message.MessageId);
         Assert.Equal("audit@example.org", message.To.Mailboxes.Single().Address);
         Assert.Single(message.BodyParts.OfType<TextPart>(), p => p.IsPlain);
@@ -40,15 +40,15 @@ public sealed class FileChannelTests : IDisposable
     public async Task Send_Retried_RewritesTheSameFileOnce()
     {
         var folder = Path.Combine(_file.Folder, "retry");
-        var config = new AlertingConfig { Routes = [new RouteConfig { Name = "archive", Channel = ChannelKind.File, Directory = folder }] };
+        var config = new AlertingConfig { MailingLists = [new MailingListConfig { Name = "archive", Channel = ChannelKind.File, Directory = folder }] };
         var harness = new AlertHarness(await _file.OpenAsync(), config);
         await harness.CycleAsync((Pair("weights"), [Critical(FindingKind.SignFlip, "flipped")]));
         var entry = Assert.Single(await harness.Store.ClaimDueAsync(harness.Time.GetUtcNow(), TimeSpan.FromMinutes(5), 10, CancellationToken.None));
         using var parsed = MimeMessage.Load(new MemoryStream(entry.Mime!));
         var channel = new FileAlertChannel();
 
-        await channel.SendAsync(entry, parsed, config.Routes[0], CancellationToken.None);
-        await channel.SendAsync(entry, parsed, config.Routes[0], CancellationToken.None);
+        await channel.SendAsync(entry, parsed, config.MailingLists[0], CancellationToken.None);
+        await channel.SendAsync(entry, parsed, config.MailingLists[0], CancellationToken.None);
 
         var file = Assert.Single(Directory.GetFiles(folder));
         Assert.Equal(entry.Mime, await File.ReadAllBytesAsync(file));

@@ -10,13 +10,13 @@ public sealed class OutboxOutageTests : IDisposable
     private readonly TemporarySqliteStore _file = new();
 
     [Fact]
-    public async Task Dispatch_ServerDownWhileAlertsFire_KeepsThemAndDeliversEachOnceOnRecovery()
+    public async Task Dispatch_ServerDownWhileAlertsAreConfirmed_KeepsThemAndDeliversEachOnceOnRecovery()
     {
         var port = LoopbackSmtp.FreePort();
         var options = new OutboxOptions { RetryBase = TimeSpan.FromMinutes(1), RetryMax = TimeSpan.FromMinutes(10), Jitter = 0.5, Lease = TimeSpan.FromMinutes(5) };
-        var harness = new AlertHarness(await _file.OpenAsync(), Smtp(port, Route("team", "team@example.org"), Route("owners", "owners@example.org")), options);
+        var harness = new AlertHarness(await _file.OpenAsync(), Smtp(port, MailingList("team", "team@example.org"), MailingList("owners", "owners@example.org")), options);
 
-        // Three cycles fire three different pairs while nothing listens on the port.
+        // Three cycles confirm alerts of three different pairs while nothing listens on the port.
         for (var i = 0; i < 3; i++)
         {
             await harness.CycleAsync((Pair($"pair_{i}"), [Critical(FindingKind.BecamePerfect, $"pair {i} became exact")]));
@@ -28,7 +28,7 @@ public sealed class OutboxOutageTests : IDisposable
         var held = await harness.Store.ListOutboxAsync(unsentOnly: true, 100, CancellationToken.None);
         Assert.Equal(6, held.Count);
         Assert.All(held, e => Assert.Null(e.SentAt));
-        // Tried ones carry the error; a route's later messages in the same pass were deferred untried.
+        // Tried ones carry the error; a mailing list's later messages in the same pass were deferred untried.
         Assert.Contains(held, e => e.Attempts >= 1 && e.LastError!.Contains("unavailable", StringComparison.Ordinal));
 
         using var server = LoopbackSmtp.Start(port);
@@ -48,15 +48,15 @@ public sealed class OutboxOutageTests : IDisposable
     }
 
     [Fact]
-    public async Task Dispatch_OneRouteDown_OtherRoutesStillDeliver()
+    public async Task Dispatch_OneMailingListDown_OtherListsStillDeliver()
     {
         using var server = LoopbackSmtp.Start();
-        var config = Smtp(LoopbackSmtp.Port(server), Route("team", "team@example.org")) with
+        var config = Smtp(LoopbackSmtp.Port(server), MailingList("team", "team@example.org")) with
         {
-            Routes =
+            MailingLists =
             [
-                Route("team", "team@example.org"),
-                // A file route whose directory cannot be created: a file stands where the folder should be.
+                MailingList("team", "team@example.org"),
+                // A file mailing list whose directory cannot be created: a file stands where the folder should be.
                 new() { Name = "archive", Channel = DriftWatch.Core.Configuration.ChannelKind.File, Directory = Path.Combine(_file.DatabasePath, "not-a-folder") },
             ],
         };
@@ -68,7 +68,7 @@ public sealed class OutboxOutageTests : IDisposable
         Assert.Equal((1, 1), (result.Sent, result.Failed));
         Assert.Single(await LoopbackSmtp.WaitForAsync(server, 1));
         var waiting = Assert.Single(await harness.Store.ListOutboxAsync(unsentOnly: true, 10, CancellationToken.None));
-        Assert.Equal("archive", waiting.Route);
+        Assert.Equal("archive", waiting.MailingList);
         Assert.Contains("cannot write", waiting.LastError, StringComparison.Ordinal);
     }
 
@@ -77,7 +77,7 @@ public sealed class OutboxOutageTests : IDisposable
     {
         var port = LoopbackSmtp.FreePort();
         var options = new OutboxOptions { RetryBase = TimeSpan.FromMinutes(2), RetryMax = TimeSpan.FromHours(1), Jitter = 0 };
-        var harness = new AlertHarness(await _file.OpenAsync(), Smtp(port, Route("team", "team@example.org")), options);
+        var harness = new AlertHarness(await _file.OpenAsync(), Smtp(port, MailingList("team", "team@example.org")), options);
         await harness.CycleAsync((Pair("weights"), [Critical(FindingKind.BecamePerfect, "exact")]));
 
         await harness.Dispatcher.DispatchDueAsync(CancellationToken.None);

@@ -14,12 +14,12 @@ public sealed class SmtpDeliveryTests : IDisposable
     private readonly TemporarySqliteStore _file = new();
 
     [Fact]
-    public async Task Cycle_CriticalFindings_DeliverOneDigestPerRouteWithPartsAndInlinePlot()
+    public async Task Cycle_CriticalFindings_DeliverOneDigestPerMailingListWithPartsAndInlinePlot()
     {
         using var server = LoopbackSmtp.Start();
         var harness = new AlertHarness(await _file.OpenAsync(), Smtp(LoopbackSmtp.Port(server),
-            Route("data-team", "data@example.org", "Analyst <analyst@example.org>"),
-            Route("owners", "owners@example.org")));
+            MailingList("data-team", "data@example.org", "Analyst <analyst@example.org>"),
+            MailingList("owners", "owners@example.org")));
         var weights = Pair("weighed_vs_declared");
         var fuel = Pair("fuel_vs_distance", "distance_km", "fuel_l");
 
@@ -35,7 +35,7 @@ public sealed class SmtpDeliveryTests : IDisposable
         Assert.Equal(["data@example.org", "analyst@example.org"], team.To.Mailboxes.Select(a => a.Address));
         Assert.Equal("driftwatch@example.org", team.From.Mailboxes.Single().Address);
         // Both critical and new; ties order by pair name, so fuel_vs_distance is the one the subject names.
-        Assert.Equal("[DriftWatch] CRITICAL: 2 alerts — fuel_vs_distance flipped sign", team.Subject);
+        Assert.Equal("DriftWatch · fuel_vs_distance: sign flipped (critical) +1 more", team.Subject);
         Assert.Equal(team.Subject, server.ReceivedEmail.Single(m => m.ToAddresses.Any(a => a.Address == "data@example.org")).Subject);
 
         var plain = Assert.Single(team.BodyParts.OfType<TextPart>(), p => p.IsPlain).Text;
@@ -57,7 +57,7 @@ public sealed class SmtpDeliveryTests : IDisposable
     public async Task Cycle_HostileColumnName_NeverAppearsRawInTheReceivedHtml()
     {
         using var server = LoopbackSmtp.Start();
-        var harness = new AlertHarness(await _file.OpenAsync(), Smtp(LoopbackSmtp.Port(server), Route("team", "team@example.org")));
+        var harness = new AlertHarness(await _file.OpenAsync(), Smtp(LoopbackSmtp.Port(server), MailingList("team", "team@example.org")));
         var hostile = Pair("evil_pair", x: "<script>alert(1)</script>", y: "amount");
 
         await harness.CycleAsync((hostile, [Critical(FindingKind.BecamePerfect, "amount equals <script>alert(1)</script> exactly")]));
@@ -70,10 +70,10 @@ public sealed class SmtpDeliveryTests : IDisposable
     }
 
     [Fact]
-    public async Task Cycle_ResolvedAlert_SendsARecoveryNotice()
+    public async Task Cycle_ClearedAlert_SendsAnAllClearNotice()
     {
         using var server = LoopbackSmtp.Start();
-        var harness = new AlertHarness(await _file.OpenAsync(), Smtp(LoopbackSmtp.Port(server), Route("team", "team@example.org")));
+        var harness = new AlertHarness(await _file.OpenAsync(), Smtp(LoopbackSmtp.Port(server), MailingList("team", "team@example.org")));
         var weights = Pair("weighed_vs_declared");
         await harness.CycleAsync((weights, [Critical(FindingKind.BecamePerfect, "exact copy")]));
 
@@ -81,10 +81,10 @@ public sealed class SmtpDeliveryTests : IDisposable
         var clean = await harness.CycleAsync((weights, []));
         await harness.Dispatcher.DispatchDueAsync(CancellationToken.None);
 
-        Assert.Equal(NotificationKind.Resolved, Assert.Single(clean.Decision.Notifications).Kind);
+        Assert.Equal(NotificationKind.Cleared, Assert.Single(clean.Decision.Notifications).Kind);
         var received = await LoopbackSmtp.WaitForAsync(server, 2);
         Assert.Equal(
-            ["[DriftWatch] CRITICAL: 1 alert — weighed_vs_declared became perfect", "[DriftWatch] RESOLVED: 1 alert cleared — weighed_vs_declared became perfect"],
+            ["DriftWatch · weighed_vs_declared: became perfect (cleared)", "DriftWatch · weighed_vs_declared: became perfect (critical)"],
             received.Select(m => m.Subject).Order(StringComparer.Ordinal));
     }
 

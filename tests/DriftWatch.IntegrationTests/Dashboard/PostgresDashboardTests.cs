@@ -50,7 +50,7 @@ public sealed class PostgresDashboardTests(PostgresServer server) : IAsyncLifeti
         var sample = new PairedSample(x, y);
         var profile = Profiler.Profile(sample, Thresholds.Default);
         var runId = await history.RecordRunAsync(new NewRun(Pair, Start, Start.AddSeconds(2), RunStatus.Succeeded, null, profile, [], null, sample), CancellationToken.None);
-        var alert = new AlertState(0, Pair, FindingKind.Outliers, Severity.Warning, AlertStatus.Pending, 1, Start, Start, null, null, null, null, "a point far off the line", runId);
+        var alert = new AlertState(0, Pair, FindingKind.Outliers, Severity.Warning, AlertStatus.Watching, 1, Start, Start, null, null, null, null, "a point far off the line", runId);
         await alerts.ApplyCycleAsync(new CycleDecision(Start, [alert], []), [], CancellationToken.None);
 
         await using var dashboard = await DashboardServer.StartAsync(
@@ -69,7 +69,7 @@ public sealed class PostgresDashboardTests(PostgresServer server) : IAsyncLifeti
         using (var pairs = JsonDocument.Parse(await client.GetStringAsync(new Uri("/api/pairs", UriKind.Relative))))
         {
             var row = pairs.RootElement.GetProperty("pairs")[0];
-            Assert.Equal("pending", row.GetProperty("status").GetString());
+            Assert.Equal("watching", row.GetProperty("status").GetString());
             Assert.Equal(0.816, row.GetProperty("latest_run").GetProperty("profile").GetProperty("pearson_r").GetDouble(), 3);
         }
 

@@ -55,8 +55,7 @@ public sealed class DuplicatedColumnEndToEndTests(PostgresServer server) : IDisp
 
         var message = Assert.Single(await LoopbackSmtp.WaitForAsync(smtp, 1));
         Assert.Equal("oncall@example.test", Assert.Single(message.To.Mailboxes).Address);
-        Assert.Contains("CRITICAL", message.Subject, StringComparison.Ordinal);
-        Assert.Contains("parcel-weights", message.Subject, StringComparison.Ordinal);
+        Assert.Equal("DriftWatch · parcel-weights: became perfect (critical)", message.Subject);
         var image = Assert.Single(message.BodyParts.OfType<MimePart>(), p => p.ContentType.MimeType == "image/png");
         Assert.Contains("cid:" + image.ContentId, message.HtmlBody!, StringComparison.Ordinal);
         using var png = new MemoryStream();
@@ -64,7 +63,7 @@ public sealed class DuplicatedColumnEndToEndTests(PostgresServer server) : IDisp
         Assert.Equal(new byte[] { 0x89, 0x50, 0x4E, 0x47, 0x0D, 0x0A, 0x1A, 0x0A }, png.ToArray()[..8]);
         Assert.Contains("weighed_kg", message.TextBody!, StringComparison.Ordinal);
 
-        // Still firing at the next check: no second email before the re-notify interval.
+        // Still confirmed at the next check: no second email before the reminder interval.
         var again = await pass.RunAsync(pairs, null, CancellationToken.None);
         Assert.Contains(again.Checks[0].Findings, f => f.Kind == FindingKind.BecamePerfect);
         await Task.Delay(300);
@@ -97,10 +96,10 @@ public sealed class DuplicatedColumnEndToEndTests(PostgresServer server) : IDisp
                 port: {{smtpPort}}
                 security: none
                 from: driftwatch@example.test
-              routes:
+              mailing_lists:
                 - name: oncall
                   recipients: [oncall@example.test]
-                  min_severity: warning
+                  from_severity: warning
             """;
         var result = ConfigLoader.Parse(yaml, "e2e.yaml", name => name == "SOURCE_PG" ? sourceConnection : null, _store.Folder);
         Assert.True(result.Ok, string.Join("\n", result.Errors));

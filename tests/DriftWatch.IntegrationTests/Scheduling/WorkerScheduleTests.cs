@@ -8,7 +8,7 @@ using Microsoft.Extensions.DependencyInjection;
 
 namespace DriftWatch.IntegrationTests.Scheduling;
 
-/// <summary>The real worker host (Quartz, store, PostgreSQL source) firing a pair every second.</summary>
+/// <summary>The real worker host (Quartz, store, PostgreSQL source) checking a pair every second.</summary>
 [Collection(UsesPostgres.Name)]
 public sealed class WorkerScheduleTests(PostgresServer server) : IDisposable
 {

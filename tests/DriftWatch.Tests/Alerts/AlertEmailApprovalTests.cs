@@ -35,14 +35,14 @@ public sealed partial class AlertEmailApprovalTests
 
         Assert.Equal(Normalise(File.ReadAllText(ApprovedPath("alert-email.html"))), Normalise(html));
         Assert.Equal(Normalise(File.ReadAllText(ApprovedPath("alert-email.txt"))), Normalise(text));
-        Assert.Equal("[DriftWatch] CRITICAL: 2 alerts, 1 resolved — weighed_vs_declared became perfect", message.Subject);
+        Assert.Equal("DriftWatch · weighed_vs_declared: became perfect (critical) +2 more", message.Subject);
     }
 
     /// <summary>
     /// Three pairs, three transitions. Points and figures: Anscombe (1973) sets I and III and the published fit
     /// y = 3.00 + 0.500 x (from memory); the "became perfect" sample is set I's x on that fitted line exactly.
     /// </summary>
-    internal static RoutedDigest ReferenceDigest()
+    internal static AddressedDigest ReferenceDigest()
     {
         var exact = new PairedSample(AnscombeData.X, [.. AnscombeData.X.Select(x => 3.0 + 0.5 * x)]);
         var perfect = new RelationshipProfile
@@ -53,14 +53,14 @@ public sealed partial class AlertEmailApprovalTests
         var weights = new AlertPairContext(Pair(), perfect, exact, Baseline, AnscombeData.Set1);
         var fuel = new AlertPairContext(Pair("fuel_vs_distance", "distance_km", "fuel_l"), Current, AnscombeData.Set3, Baseline, AnscombeData.Set1);
         var refunds = new AlertPairContext(Pair("refunds_vs_orders", "orders", "refunds"), Baseline, AnscombeData.Set1, Baseline, AnscombeData.Set1);
-        return new RoutedDigest(Route(), DigestOrder.Sort(
+        return new AddressedDigest(MailingList(), DigestOrder.Sort(
         [
             new DigestItem(new AlertNotification(Alert("weighed_vs_declared", FindingKind.BecamePerfect, Severity.Critical,
-                message: "weighed_kg became an exact function of declared_kg (r = 1.000, was 0.816): one column may now be computed from the other"), NotificationKind.Fired), weights),
+                message: "weighed_kg became an exact function of declared_kg (r = 1.000, was 0.816): one column may now be computed from the other"), NotificationKind.Confirmed), weights),
             new DigestItem(new AlertNotification(Alert("fuel_vs_distance", FindingKind.CurvatureAppeared, Severity.Warning,
-                message: "a curve now fits fuel_l against distance_km better than a line (quadratic p < 0.001)") with { FiredAt = At.AddDays(-1) }, NotificationKind.Renotified), fuel),
-            new DigestItem(new AlertNotification(Alert("refunds_vs_orders", FindingKind.CheckFailing, Severity.Critical, AlertStatus.Resolved,
-                "the check runs again after 3 failures"), NotificationKind.Resolved), refunds),
+                message: "a curve now fits fuel_l against distance_km better than a line (quadratic p < 0.001)") with { ConfirmedAt = At.AddDays(-1) }, NotificationKind.Reminder), fuel),
+            new DigestItem(new AlertNotification(Alert("refunds_vs_orders", FindingKind.CheckFailing, Severity.Critical, AlertStatus.Cleared,
+                "the check runs again after 3 failures"), NotificationKind.Cleared), refunds),
         ]));
     }
 

@@ -39,17 +39,17 @@ internal static class AlertSamples
     public static AlertPairContext Context(PairConfig? pair = null, RelationshipProfile? current = null) =>
         new(pair ?? Pair(), current ?? Current, AnscombeData.Set3, Baseline, AnscombeData.Set1);
 
-    public static AlertState Alert(string pair, FindingKind kind, Severity severity, AlertStatus status = AlertStatus.Firing, string message = "something changed", long id = 0) =>
-        new(id, pair, kind, severity, status, 1, At.AddHours(-1), At, At, At, status == AlertStatus.Resolved ? At : null, null, message, 7);
+    public static AlertState Alert(string pair, FindingKind kind, Severity severity, AlertStatus status = AlertStatus.Confirmed, string message = "something changed", long id = 0) =>
+        new(id, pair, kind, severity, status, 1, At.AddHours(-1), At, At, At, status == AlertStatus.Cleared ? At : null, null, message, 7);
 
     public static DigestItem Item(AlertState alert, NotificationKind kind, AlertPairContext? context = null) =>
         new(new AlertNotification(alert, kind), context ?? Context(Pair(alert.Pair)));
 
-    public static RouteConfig Route(string name = "data-team", bool includePlot = true, Severity min = Severity.Warning, IReadOnlyList<string>? tags = null) => new()
+    public static MailingListConfig MailingList(string name = "data-team", bool includePlot = true, Severity min = Severity.Warning, IReadOnlyList<string>? tags = null) => new()
     {
         Name = name,
         Recipients = ["data-team@example.org", "On Call <oncall@example.org>"],
-        MinSeverity = min,
+        FromSeverity = min,
         IncludePlot = includePlot,
         Tags = tags ?? [],
     };

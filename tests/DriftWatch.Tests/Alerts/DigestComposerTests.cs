@@ -13,33 +13,43 @@ public sealed class DigestComposerTests
 {
     private static readonly DigestOptions Options = new("DriftWatch <dw@example.org>", new Uri("https://dw.example.org/"));
 
-    private static RoutedDigest TwoPairs(bool includePlot = true) => new(Route(includePlot: includePlot),
+    private static AddressedDigest TwoPairs(bool includePlot = true) => new(MailingList(includePlot: includePlot),
     [
-        Item(Alert("weighed_vs_declared", FindingKind.BecamePerfect, Severity.Critical, message: "weighed_kg now equals declared_kg on every row"), NotificationKind.Fired),
-        Item(Alert("weighed_vs_declared", FindingKind.SlopeShift, Severity.Warning, message: "slope moved from 0.50 to 1.00"), NotificationKind.Renotified),
-        Item(Alert("fuel_vs_distance", FindingKind.SignFlip, Severity.Critical, AlertStatus.Resolved, "sign is back to positive"), NotificationKind.Resolved),
+        Item(Alert("weighed_vs_declared", FindingKind.BecamePerfect, Severity.Critical, message: "weighed_kg now equals declared_kg on every row"), NotificationKind.Confirmed),
+        Item(Alert("weighed_vs_declared", FindingKind.SlopeShift, Severity.Warning, message: "slope moved from 0.50 to 1.00"), NotificationKind.Reminder),
+        Item(Alert("fuel_vs_distance", FindingKind.SignFlip, Severity.Critical, AlertStatus.Cleared, "sign is back to positive"), NotificationKind.Cleared),
     ]);
 
     [Fact]
-    public void Compose_Digest_SubjectNamesWorstSeverityCountAndWorstPair()
+    public void Compose_Digest_SubjectLeadsWithTheWorstPairAndWhatChanged_ThenCountsTheRest()
     {
         using var message = DigestComposer.Compose(TwoPairs(), Options, At);
 
-        Assert.Equal("[DriftWatch] CRITICAL: 2 alerts, 1 resolved — weighed_vs_declared became perfect", message.Subject);
+        Assert.Equal("DriftWatch · weighed_vs_declared: became perfect (critical) +2 more", message.Subject);
     }
 
     [Fact]
-    public void Compose_RecoveriesOnly_SubjectSaysResolved()
+    public void Compose_ReminderOnly_SubjectSaysReminder()
     {
-        var digest = new RoutedDigest(Route(), [Item(Alert("fuel_vs_distance", FindingKind.SignFlip, Severity.Critical, AlertStatus.Resolved), NotificationKind.Resolved)]);
+        var digest = new AddressedDigest(MailingList(), [Item(Alert("weighed_vs_declared", FindingKind.SlopeShift, Severity.Warning), NotificationKind.Reminder)]);
 
         using var message = DigestComposer.Compose(digest, Options, At);
 
-        Assert.Equal("[DriftWatch] RESOLVED: 1 alert cleared — fuel_vs_distance flipped sign", message.Subject);
+        Assert.Equal("DriftWatch · weighed_vs_declared: slope changed (warning, reminder)", message.Subject);
     }
 
     [Fact]
-    public void Compose_Digest_AddressesTheRouteAndIsMarkedMachineSent()
+    public void Compose_AllClearsOnly_SubjectSaysCleared()
+    {
+        var digest = new AddressedDigest(MailingList(), [Item(Alert("fuel_vs_distance", FindingKind.SignFlip, Severity.Critical, AlertStatus.Cleared), NotificationKind.Cleared)]);
+
+        using var message = DigestComposer.Compose(digest, Options, At);
+
+        Assert.Equal("DriftWatch · fuel_vs_distance: sign flipped (cleared)", message.Subject);
+    }
+
+    [Fact]
+    public void Compose_Digest_AddressesTheMailingListAndIsMarkedMachineSent()
     {
         using var message = DigestComposer.Compose(TwoPairs(), Options, At);
 
@@ -68,7 +78,7 @@ public sealed class DigestComposerTests
     }
 
     [Fact]
-    public void Compose_RouteWithoutPlots_HasNoImageAndNoSampledDataCaution()
+    public void Compose_ListWithoutPlots_HasNoImageAndNoSampledDataCaution()
     {
         using var message = DigestComposer.Compose(TwoPairs(includePlot: false), Options, At);
 
@@ -105,7 +115,7 @@ public sealed class DigestComposerTests
     public void Compose_PublicUrl_LinksEachPairsDashboardPageWithTheNameEncoded()
     {
         var pair = Pair("weighed vs declared & co");
-        var digest = new RoutedDigest(Route(), [Item(Alert(pair.Name, FindingKind.BecamePerfect, Severity.Critical), NotificationKind.Fired, Context(pair))]);
+        var digest = new AddressedDigest(MailingList(), [Item(Alert(pair.Name, FindingKind.BecamePerfect, Severity.Critical), NotificationKind.Confirmed, Context(pair))]);
 
         using var message = DigestComposer.Compose(digest, Options with { PublicUrl = new Uri("https://dw.example.org/watch/") }, At);
 
@@ -128,7 +138,7 @@ public sealed class DigestComposerTests
         const string hostile = "<script>alert(1)</script>";
         var pair = Pair("<img src=x onerror=alert(2)>", x: hostile, y: "y\"><b>");
         var alert = Alert(pair.Name, FindingKind.BecamePerfect, Severity.Critical, message: $"{hostile} now equals y");
-        var digest = new RoutedDigest(Route(), [Item(alert, NotificationKind.Fired, Context(pair, Current with { Equation = $"y = 1 × {hostile}" }))]);
+        var digest = new AddressedDigest(MailingList(), [Item(alert, NotificationKind.Confirmed, Context(pair, Current with { Equation = $"y = 1 × {hostile}" }))]);
 
         using var message = DigestComposer.Compose(digest, Options, At);
 
@@ -144,7 +154,7 @@ public sealed class DigestComposerTests
     [Fact]
     public void Compose_CurrentProfileWithEquation_ShowsTheDerivedEquation()
     {
-        var digest = new RoutedDigest(Route(), [Item(Alert("weighed_vs_declared", FindingKind.BecamePerfect, Severity.Critical), NotificationKind.Fired, Context(current: Current with { Equation = "weighed_kg = 1.000 × declared_kg + 0.000" }))]);
+        var digest = new AddressedDigest(MailingList(), [Item(Alert("weighed_vs_declared", FindingKind.BecamePerfect, Severity.Critical), NotificationKind.Confirmed, Context(current: Current with { Equation = "weighed_kg = 1.000 × declared_kg + 0.000" }))]);
 
         using var message = DigestComposer.Compose(digest, Options, At);
 

@@ -165,7 +165,7 @@ public sealed class CheckCommandTests : IDisposable
     [Fact]
     public async Task Check_EmptyTableAfterACriticalAlert_ExitsThreeUnmeasurableAndTheAlertStaysOpen()
     {
-        // Baseline of two healthy runs, then y becomes a copy of x: became_perfect, critical, fires at once.
+        // Baseline of two healthy runs, then y becomes a copy of x: became_perfect, critical, confirmed at once.
         await CliRun.Of("check", "--config", ConfigPath);
         await CliRun.Of("check", "--config", ConfigPath);
         using (var connection = Open())
@@ -200,10 +200,10 @@ public sealed class CheckCommandTests : IDisposable
         var all = list.RootElement.GetProperty("alerts").EnumerateArray().ToList();
         var perfect = Assert.Single(all, a => a.GetProperty("kind").GetString() == "became_perfect");
         Assert.Equal("critical", perfect.GetProperty("severity").GetString());
-        Assert.Equal("firing", perfect.GetProperty("status").GetString());
-        Assert.Equal(JsonValueKind.Null, perfect.GetProperty("resolved_at").ValueKind);
+        Assert.Equal("confirmed", perfect.GetProperty("status").GetString());
+        Assert.Equal(JsonValueKind.Null, perfect.GetProperty("cleared_at").ValueKind);
         var failing = Assert.Single(all, a => a.GetProperty("kind").GetString() == "check_failing");
-        Assert.Equal("pending", failing.GetProperty("status").GetString());
+        Assert.Equal("watching", failing.GetProperty("status").GetString());
         Assert.Contains("could not measure the pair: No rows in the window", failing.GetProperty("message").GetString(), StringComparison.Ordinal);
 
         var history = await CliRun.Of("history", "hours-vs-pallets", "--config", ConfigPath, "--format", "json");

@@ -96,10 +96,10 @@ public sealed class ConfigLoaderErrorTests
     }
 
     [Fact]
-    public void Parse_UnknownRoute_IsAnError()
+    public void Parse_UnknownMailingList_IsAnError()
     {
-        var errors = Errors(OnePair + "    notify: [pager]\nalerting:\n  routes:\n    - name: archive\n      channel: file\n      directory: out\n");
-        Assert.Equal(["test.yaml:11:14: pairs[0].notify[0]: unknown route 'pager'; declared: archive"], errors);
+        var errors = Errors(OnePair + "    notify: [pager]\nalerting:\n  mailing_lists:\n    - name: archive\n      channel: file\n      directory: out\n");
+        Assert.Equal(["test.yaml:11:14: pairs[0].notify[0]: unknown mailing list 'pager'; declared: archive"], errors);
     }
 
     [Fact]
@@ -218,17 +218,17 @@ public sealed class ConfigLoaderErrorTests
     }
 
     [Fact]
-    public void Parse_SmtpRouteWithoutServer_IsAnError()
+    public void Parse_SmtpMailingListWithoutServer_IsAnError()
     {
-        var errors = Errors(OnePair + "alerting:\n  routes:\n    - name: team\n      recipients: [a@b.example]\n");
-        Assert.Equal(["test.yaml:13:7: alerting.routes[0].channel: is smtp but alerting.smtp is not set; add the server or use channel: file"], errors);
+        var errors = Errors(OnePair + "alerting:\n  mailing_lists:\n    - name: team\n      recipients: [a@b.example]\n");
+        Assert.Equal(["test.yaml:13:7: alerting.mailing_lists[0].channel: is smtp but alerting.smtp is not set; add the server or use channel: file"], errors);
     }
 
     [Fact]
     public void Parse_BadRecipient_IsAnError()
     {
-        var errors = Errors(OnePair + "alerting:\n  routes:\n    - name: files\n      channel: file\n      directory: out\n      recipients: [nobody]\n");
-        Assert.Equal(["test.yaml:16:20: alerting.routes[0].recipients[0]: 'nobody' is not a mail address (name@example.org, or Name <name@example.org>)"], errors);
+        var errors = Errors(OnePair + "alerting:\n  mailing_lists:\n    - name: files\n      channel: file\n      directory: out\n      recipients: [nobody]\n");
+        Assert.Equal(["test.yaml:16:20: alerting.mailing_lists[0].recipients[0]: 'nobody' is not a mail address (name@example.org, or Name <name@example.org>)"], errors);
     }
 
     [Fact]

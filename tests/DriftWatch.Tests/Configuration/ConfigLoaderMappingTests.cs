@@ -73,9 +73,9 @@ public sealed class ConfigLoaderMappingTests : IDisposable
     public void Parse_FullConfig_MapsAlerting()
     {
         var alerting = LoadFull().Alerting;
-        Assert.Equal(3, alerting.WarningPersistence);
-        Assert.Equal(2, alerting.CriticalPersistence);
-        Assert.Equal(TimeSpan.FromHours(12), alerting.Renotify);
+        Assert.Equal(3, alerting.WarningConfirmRuns);
+        Assert.Equal(2, alerting.CriticalConfirmRuns);
+        Assert.Equal(TimeSpan.FromHours(12), alerting.RemindEvery);
         Assert.Null(alerting.FdrQ);
         Assert.Equal(5, alerting.CheckFailingAfter);
         Assert.Equal(new Uri("https://dw.grocer.example/"), alerting.PublicUrl);
@@ -89,13 +89,13 @@ public sealed class ConfigLoaderMappingTests : IDisposable
         Assert.Equal("DriftWatch <dw@grocer.example>", smtp.From);
 
         Assert.Collection(
-            alerting.Routes,
+            alerting.MailingLists,
             team =>
             {
                 Assert.Equal("team", team.Name);
                 Assert.Equal(ChannelKind.Smtp, team.Channel);
                 Assert.Equal(["data@grocer.example", "Ops <ops@grocer.example>"], team.Recipients);
-                Assert.Equal(Severity.Info, team.MinSeverity);
+                Assert.Equal(Severity.Info, team.FromSeverity);
                 Assert.Equal(["finance"], team.Tags);
                 Assert.False(team.IncludePlot);
                 Assert.Null(team.Directory);
@@ -105,7 +105,7 @@ public sealed class ConfigLoaderMappingTests : IDisposable
                 Assert.Equal("archive", archive.Name);
                 Assert.Equal(ChannelKind.File, archive.Channel);
                 Assert.Empty(archive.Recipients);
-                Assert.Equal(Severity.Critical, archive.MinSeverity);
+                Assert.Equal(Severity.Critical, archive.FromSeverity);
                 Assert.True(archive.IncludePlot);
                 Assert.Equal(Path.Combine(_dir.Path, "alerts"), archive.Directory);
             });
@@ -189,11 +189,11 @@ public sealed class ConfigLoaderMappingTests : IDisposable
         Assert.Equal(StoreConfig.DefaultPointsPerRun, config.Store.PointsPerRun);
         Assert.Equal(StoreConfig.DefaultPointsRetention, config.Store.PointsRetention);
 
-        Assert.Empty(config.Alerting.Routes);
+        Assert.Empty(config.Alerting.MailingLists);
         Assert.Null(config.Alerting.Smtp);
-        Assert.Equal(AlertingConfig.DefaultWarningPersistence, config.Alerting.WarningPersistence);
-        Assert.Equal(AlertingConfig.DefaultCriticalPersistence, config.Alerting.CriticalPersistence);
-        Assert.Equal(AlertingConfig.DefaultRenotify, config.Alerting.Renotify);
+        Assert.Equal(AlertingConfig.DefaultWarningConfirmRuns, config.Alerting.WarningConfirmRuns);
+        Assert.Equal(AlertingConfig.DefaultCriticalConfirmRuns, config.Alerting.CriticalConfirmRuns);
+        Assert.Equal(AlertingConfig.DefaultRemindEvery, config.Alerting.RemindEvery);
         Assert.Equal(AlertingConfig.DefaultFdrQ, config.Alerting.FdrQ);
         Assert.Equal(AlertingConfig.DefaultCheckFailingAfter, config.Alerting.CheckFailingAfter);
         Assert.Null(config.Alerting.PublicUrl);

@@ -17,7 +17,7 @@ public sealed class ExampleConfigTests
         var config = result.Config!;
         Assert.Equal(["shop", "warehouse"], config.Sources.Select(s => s.Name));
         Assert.Equal(5, config.Pairs.Count);
-        Assert.Equal(["data-team", "logistics-inbox", "archive"], config.Alerting.Routes.Select(r => r.Name));
+        Assert.Equal(["data-team", "logistics-inbox", "archive"], config.Alerting.MailingLists.Select(r => r.Name));
 
         // The crontab line in the example is documented as "0 */30 * * * ?".
         Assert.Equal("0 */30 * * * ?", config.FindPair("delivery-km-vs-minutes")!.Schedule);

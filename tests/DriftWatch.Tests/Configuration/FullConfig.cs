@@ -85,18 +85,18 @@ internal static class FullConfig
             x: pick_lines
             y: pick_seconds
         alerting:
-          routes:
+          mailing_lists:
             - name: team
               channel: smtp
               recipients: [data@grocer.example, "Ops <ops@grocer.example>"]
-              min_severity: info
+              from_severity: info
               tags: [finance]
               include_plot: false
             - name: archive
               channel: file
               recipients: []
               directory: alerts
-              min_severity: critical
+              from_severity: critical
           smtp:
             host: mail.grocer.example
             port: 465
@@ -105,10 +105,9 @@ internal static class FullConfig
             password: ${SMTP_PASSWORD}
             password_file:
             from: DriftWatch <dw@grocer.example>
-          persistence:
-            warning: 3
-            critical: 2
-          renotify: 12h
+          warning_confirm_runs: 3
+          critical_confirm_runs: 2
+          remind_every: 12h
           fdr_q: off
           check_failing_after: 5
           public_url: https://dw.grocer.example/

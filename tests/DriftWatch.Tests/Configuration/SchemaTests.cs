@@ -44,7 +44,7 @@ public sealed class SchemaTests
         var checkedLevels = new List<string>();
         Check(ConfigKeys.Root, root, "(root)");
         Assert.Contains("pairs.baseline.window", checkedLevels);
-        Assert.Contains("alerting.routes", checkedLevels);
+        Assert.Contains("alerting.mailing_lists", checkedLevels);
 
         void Check(KeyLevel level, JsonElement schema, string path)
         {

@@ -18,11 +18,11 @@ namespace DriftWatch.Tests.Dashboard;
 /// <list type="bullet">
 /// <item><see cref="Healthy"/>: order totals follow item counts with noise throughout.</item>
 /// <item><see cref="Perfect"/>: gross amounts carried per-invoice adjustments, then on the last day became exactly
-/// 1.2 × net (a job started deriving the column): became_perfect, critical, firing.</item>
-/// <item><see cref="Failing"/>: the last three checks could not reach the source: check_failing fires.</item>
+/// 1.2 × net (a job started deriving the column): became_perfect, critical, confirmed.</item>
+/// <item><see cref="Failing"/>: the last three checks could not reach the source: check_failing is confirmed.</item>
 /// <item><see cref="Young"/>: configured a day ago, two runs, no baseline yet (first_runs: 5).</item>
 /// <item><see cref="Hostile"/> (optional): pair and column names that are HTML, for escaping tests; its y is an
-/// exact function of x, so its perfect_relationship alert fires and the name reaches alerts and outbox too.</item>
+/// exact function of x, so its perfect_relationship alert is confirmed and the name reaches alerts and outbox too.</item>
 /// </list>
 /// Shared with the browser tests (linked into that project).
 /// </summary>
@@ -189,7 +189,7 @@ internal sealed class DashboardScenario : IAsyncDisposable
                     y[i] = cycle >= Cycles - 4 ? 1.2 * x[i] : 1.2 * x[i] + Noise(random, 45);
                     break;
                 case Hostile:
-                    // An exact function on every run: perfect_relationship persists and fires.
+                    // An exact function on every run: perfect_relationship is seen every run and confirmed.
                     x[i] = 1 + random.Next(50);
                     y[i] = 2 + 3 * x[i];
                     break;
@@ -218,7 +218,7 @@ internal sealed class DashboardScenario : IAsyncDisposable
     private static OutboxMessage Message(AlertNotification notification, DateTimeOffset at, int index)
     {
         var alert = notification.Alert;
-        var subject = $"[DriftWatch] {JsonName(notification.Kind)}: {alert.Pair} {JsonName(alert.Kind)}";
+        var subject = $"DriftWatch · {alert.Pair}: {JsonName(alert.Kind)} ({JsonName(notification.Kind)})";
         var id = string.Create(CultureInfo.InvariantCulture, $"<{at.ToUnixTimeMilliseconds()}.{index}@driftwatch.test>");
         var mime = Encoding.ASCII.GetBytes($"Message-Id: {id}\r\nSubject: {subject}\r\n\r\n{alert.Message}\r\n");
         return new OutboxMessage(id, "oncall", ChannelKind.Smtp, at + TimeSpan.FromMinutes(1), subject, ["data-oncall@example.test"], mime);

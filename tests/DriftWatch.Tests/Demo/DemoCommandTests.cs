@@ -11,7 +11,7 @@ namespace DriftWatch.Tests.Demo;
 /// <summary>
 /// The demo end to end, in-process, into a temporary folder. A scenario test on invented data (allowed for the
 /// demo only; the engine's figures are tested against published data elsewhere). Allowed lag: a fault must show
-/// its expected finding on its day or within 2 days after it, the expected alert must have fired in that span,
+/// its expected finding on its day or within 2 days after it, the expected alert must have been confirmed in that span,
 /// and the control pair must carry no finding at all on any of the 21 days.
 /// </summary>
 public sealed class DemoCommandTests : IClassFixture<DemoCommandTests.FullDemo>
@@ -54,8 +54,8 @@ public sealed class DemoCommandTests : IClassFixture<DemoCommandTests.FullDemo>
         Assert.DoesNotContain(runs.Where(r => DemoStoreReader.DayOf(r.StartedAt) < day), r => r.Findings.Any(f => f.Kind == expected));
         var first = runs.First(r => r.Findings.Any(f => f.Kind == expected));
         Assert.InRange(DemoStoreReader.DayOf(first.StartedAt), day, day + AllowedLag);
-        var fired = Assert.Single(_demo.Store.Alerts, a => a.Pair == pair && a.Kind == expected && a.FiredAt is not null);
-        Assert.InRange(DemoStoreReader.DayOf(fired.FiredAt!.Value), day, day + AllowedLag);
+        var confirmed = Assert.Single(_demo.Store.Alerts, a => a.Pair == pair && a.Kind == expected && a.ConfirmedAt is not null);
+        Assert.InRange(DemoStoreReader.DayOf(confirmed.ConfirmedAt!.Value), day, day + AllowedLag);
     }
 
     [Fact]
@@ -109,7 +109,7 @@ public sealed class DemoCommandTests : IClassFixture<DemoCommandTests.FullDemo>
 
         var alert = Assert.Single(_demo.Store.Alerts, a => a.Pair == "reefer-count-vs-power" && a.Kind == FindingKind.CheckFailing);
         Assert.Equal(Severity.Critical, alert.Severity);
-        Assert.Equal(21, DemoStoreReader.DayOf(alert.FiredAt!.Value));
+        Assert.Equal(21, DemoStoreReader.DayOf(alert.ConfirmedAt!.Value));
     }
 
     [Fact]
@@ -150,7 +150,7 @@ public sealed class DemoCommandTests : IClassFixture<DemoCommandTests.FullDemo>
         Assert.All(result.Config.Pairs, p => Assert.Equal(TimeSpan.FromHours(24), p.Window!.Last));
         Assert.All(result.Config.Pairs, p => Assert.Equal(5, p.Baseline.FirstRuns));
         Assert.Equal(SourceKind.Sqlite, Assert.Single(result.Config.Sources).Kind);
-        Assert.Equal(ChannelKind.File, Assert.Single(result.Config.Alerting.Routes).Channel);
+        Assert.Equal(ChannelKind.File, Assert.Single(result.Config.Alerting.MailingLists).Channel);
     }
 
     /// <summary>One full 21-day demo shared by the assertions above (it takes a few seconds).</summary>

@@ -32,12 +32,38 @@ internal static class AlertWording
         _ => kind.ToString(),
     };
 
+    /// <summary>What changed, as a short headline for the subject: "orders_vs_refunds: slope changed".</summary>
+    public static string Headline(FindingKind kind) => kind switch
+    {
+        FindingKind.PerfectRelationship => "exact function",
+        FindingKind.Curvature => "curved",
+        FindingKind.Outliers => "outliers",
+        FindingKind.SinglePointLeverage => "hangs on a single point",
+        FindingKind.ExactnessLost => "no longer exact",
+        FindingKind.BecamePerfect => "became perfect",
+        FindingKind.PartlyDerived => "partly derived",
+        FindingKind.CorrelationShift => "correlation changed",
+        FindingKind.SignFlip => "sign flipped",
+        FindingKind.RelationshipLost => "relationship lost",
+        FindingKind.SlopeShift => "slope changed",
+        FindingKind.OffsetShift => "offset moved",
+        FindingKind.CurvatureAppeared => "became curved",
+        FindingKind.OutlierSurge => "more outliers",
+        FindingKind.LeverageAppeared => "now hangs on a single point",
+        FindingKind.NullSurge => "more nulls",
+        FindingKind.SampleShrank => "fewer rows",
+        FindingKind.HiddenRowsDriveLine => "line driven by rows outside the sample",
+        FindingKind.MarginalShift => "distribution changed",
+        FindingKind.CheckFailing => "cannot be checked",
+        _ => kind.ToString(),
+    };
+
     public static string Transition(NotificationKind kind) => kind switch
     {
-        NotificationKind.Fired => "new",
+        NotificationKind.Confirmed => "new",
         NotificationKind.Escalated => "escalated",
-        NotificationKind.Renotified => "still firing",
-        NotificationKind.Resolved => "resolved",
+        NotificationKind.Reminder => "reminder",
+        NotificationKind.Cleared => "cleared",
         _ => kind.ToString(),
     };
 
@@ -56,5 +82,6 @@ internal static class AlertWording
         _ => "#475569",
     };
 
-    public const string ResolvedColour = "#15803D";
+    /// <summary>The badge colour of an all-clear notice.</summary>
+    public const string ClearedColour = "#15803D";
 }

@@ -8,21 +8,21 @@ internal static class DigestCautions
 
     public const string SampledValues =
         "This message carries sampled data values out of the database: each plot shows rows sampled from the source. " +
-        "A route can leave plots out (include_plot: false).";
+        "A mailing list can leave plots out (include_plot: false).";
 
     public static string Summary(IReadOnlyList<DigestItem> items)
     {
         var active = items.Count(i => i.IsActive);
-        var resolved = items.Count - active;
+        var cleared = items.Count - active;
         var parts = new List<string>(2);
         if (active > 0)
         {
             parts.Add(active == 1 ? "1 alert needs a look" : $"{active} alerts need a look");
         }
 
-        if (resolved > 0)
+        if (cleared > 0)
         {
-            parts.Add(resolved == 1 ? "1 alert resolved" : $"{resolved} alerts resolved");
+            parts.Add(cleared == 1 ? "1 alert cleared" : $"{cleared} alerts cleared");
         }
 
         return string.Join(", ", parts) + ".";

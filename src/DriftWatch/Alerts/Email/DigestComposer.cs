@@ -4,21 +4,21 @@ using MimeKit;
 namespace DriftWatch.Alerts.Email;
 
 /// <summary>
-/// Turns one route's items of one cycle into one message. The body is MimeKit's <see cref="BodyBuilder"/>
+/// Turns one mailing list's items of one cycle into one message. The body is MimeKit's <see cref="BodyBuilder"/>
 /// layout: multipart/alternative of text/plain and a multipart/related holding the text/html and the inline
 /// PNG plots (Content-Id referenced as <c>cid:</c>), so a plain-text reader does not list the plots as
 /// attachments. Pure apart from rendering: the caller passes the time and every figure.
 /// </summary>
 internal static class DigestComposer
 {
-    public static MimeMessage Compose(RoutedDigest digest, DigestOptions options, DateTimeOffset at)
+    public static MimeMessage Compose(AddressedDigest digest, DigestOptions options, DateTimeOffset at)
     {
         ArgumentNullException.ThrowIfNull(digest);
         ArgumentNullException.ThrowIfNull(options);
         ArgumentOutOfRangeException.ThrowIfZero(digest.Items.Count);
-        var route = digest.Route;
+        var list = digest.List;
         var items = DigestOrder.Sort(digest.Items);
-        var messageId = MessageIds.ForDigest(route.Name, at, items);
+        var messageId = MessageIds.ForDigest(list.Name, at, items);
         var subject = DigestSubject.For(items);
 
         var builder = new BodyBuilder();
@@ -29,7 +29,7 @@ internal static class DigestComposer
             var context = group.First().Context;
             string? contentId = null;
             string? note = null;
-            if (route.IncludePlot && HasPoints(context))
+            if (list.IncludePlot && HasPoints(context))
             {
                 if (plots < DigestOptions.MaxPlotsPerMessage)
                 {
@@ -47,7 +47,7 @@ internal static class DigestComposer
             sections.Add(new PairSection(context, [.. group], contentId, note, DashboardUrl(options.PublicUrl, context.Pair.Name)));
         }
 
-        var model = new DigestModel(subject, route.Name, at, sections, plots > 0);
+        var model = new DigestModel(subject, list.Name, at, sections, plots > 0);
         builder.TextBody = DigestPlainText.Render(model);
         builder.HtmlBody = DigestHtml.Render(model);
 
@@ -59,27 +59,27 @@ internal static class DigestComposer
             Body = builder.ToMessageBody(),
         };
         message.From.Add(MailboxAddress.Parse(options.From));
-        foreach (var recipient in route.Recipients)
+        foreach (var recipient in list.Recipients)
         {
             message.To.Add(MailboxAddress.Parse(recipient));
         }
 
         // RFC 3834: machine-sent, so vacation responders stay quiet.
         message.Headers.Add("Auto-Submitted", "auto-generated");
-        message.Headers.Add("X-DriftWatch-Route", route.Name);
+        message.Headers.Add("X-DriftWatch-Mailing-List", list.Name);
         return message;
     }
 
     /// <summary>The whole message as bytes for the outbox: what is stored is exactly what is sent.</summary>
-    public static OutboxMessage ToOutbox(MimeMessage message, RoutedDigest digest, DateTimeOffset at)
+    public static OutboxMessage ToOutbox(MimeMessage message, AddressedDigest digest, DateTimeOffset at)
     {
         ArgumentNullException.ThrowIfNull(message);
         using var stream = new MemoryStream();
         message.WriteTo(FormatOptions.Default, stream);
         return new OutboxMessage(
             message.MessageId ?? throw new ArgumentException("The message has no Message-Id.", nameof(message)),
-            digest.Route.Name,
-            digest.Route.Channel,
+            digest.List.Name,
+            digest.List.Channel,
             at,
             message.Subject ?? "",
             [.. message.To.Mailboxes.Select(m => m.Address)],

@@ -25,7 +25,7 @@ internal static class DigestHtml
             .Append("<title>").Append(H(model.Subject)).Append("</title></head>\n")
             .Append("<body style=\"margin:0;padding:0;background:#F3F4F6;\">\n")
             .Append("<div style=\"max-width:700px;margin:0 auto;padding:24px 16px;font-family:").Append(Font).Append(";color:#111827;\">\n")
-            .Append("<div style=\"font-size:13px;color:#6B7280;\">DriftWatch · route ").Append(H(model.Route)).Append(" · ").Append(H(FigureFormat.Time(model.At))).Append("</div>\n")
+            .Append("<div style=\"font-size:13px;color:#6B7280;\">DriftWatch · mailing list ").Append(H(model.MailingList)).Append(" · ").Append(H(FigureFormat.Time(model.At))).Append("</div>\n")
             .Append("<h1 style=\"font-size:20px;font-weight:600;margin:4px 0 16px;\">").Append(H(DigestCautions.Summary(items))).Append("</h1>\n");
 
         foreach (var section in model.Sections)
@@ -47,7 +47,7 @@ internal static class DigestHtml
     private static void Section(StringBuilder html, PairSection section)
     {
         var worst = section.Items[0];
-        var accent = worst.IsActive ? AlertWording.SeverityColour(worst.Alert.Severity) : AlertWording.ResolvedColour;
+        var accent = worst.IsActive ? AlertWording.SeverityColour(worst.Alert.Severity) : AlertWording.ClearedColour;
         html.Append("<div style=\"background:#FFFFFF;border:1px solid #E5E7EB;border-left:4px solid ").Append(accent)
             .Append(";border-radius:6px;padding:16px 20px;margin:0 0 16px;\">\n")
             .Append("<h2 style=\"font-size:17px;font-weight:600;margin:0 0 2px;word-break:break-word;\">").Append(H(section.Pair)).Append("</h2>\n")
@@ -92,22 +92,22 @@ internal static class DigestHtml
     private static void Item(StringBuilder html, DigestItem item)
     {
         var alert = item.Alert;
-        var colour = item.IsActive ? AlertWording.SeverityColour(alert.Severity) : AlertWording.ResolvedColour;
-        var badge = item.IsActive ? AlertWording.SeverityLabel(alert.Severity) : "RESOLVED";
+        var colour = item.IsActive ? AlertWording.SeverityColour(alert.Severity) : AlertWording.ClearedColour;
+        var badge = item.IsActive ? AlertWording.SeverityLabel(alert.Severity) : "CLEARED";
         html.Append("<li style=\"font-size:14px;line-height:1.45;margin:0 0 6px;\">")
             .Append("<span style=\"display:inline-block;font-size:11px;font-weight:700;letter-spacing:0.04em;color:#FFFFFF;background:").Append(colour)
             .Append(";border-radius:3px;padding:1px 6px;margin-right:6px;\">").Append(badge).Append("</span>");
         if (item.IsActive)
         {
-            // The RESOLVED badge says it all for a recovery; active ones say whether they are news.
+            // The CLEARED badge says it all for an all-clear; active ones say whether they are news.
             html.Append("<span style=\"color:#6B7280;\">").Append(H(AlertWording.Transition(item.Notification.Kind))).Append(" · </span>");
         }
 
         html.Append("<strong>").Append(H(AlertWording.Phrase(alert.Kind))).Append("</strong>: ")
             .Append(H(alert.Message));
-        if (item.Notification.Kind is NotificationKind.Renotified or NotificationKind.Escalated && alert.FiredAt is { } fired)
+        if (item.Notification.Kind is NotificationKind.Reminder or NotificationKind.Escalated && alert.ConfirmedAt is { } confirmed)
         {
-            html.Append(" <span style=\"color:#6B7280;\">(firing since ").Append(H(FigureFormat.Time(fired))).Append(")</span>");
+            html.Append(" <span style=\"color:#6B7280;\">(confirmed since ").Append(H(FigureFormat.Time(confirmed))).Append(")</span>");
         }
 
         if (alert.IsAcked)

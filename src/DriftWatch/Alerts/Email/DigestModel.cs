@@ -3,7 +3,7 @@ namespace DriftWatch.Alerts.Email;
 /// <summary>What one digest message says, before it is written as HTML and plain text.</summary>
 internal sealed record DigestModel(
     string Subject,
-    string Route,
+    string MailingList,
     DateTimeOffset At,
     IReadOnlyList<PairSection> Sections,
     bool CarriesPlots);

@@ -10,7 +10,7 @@ internal static class DigestPlainText
     {
         var items = model.Sections.SelectMany(s => s.Items).ToArray();
         var text = new StringBuilder(4 * 1024);
-        text.Append("DriftWatch · route ").Append(model.Route).Append(" · ").Append(FigureFormat.Time(model.At)).Append('\n')
+        text.Append("DriftWatch · mailing list ").Append(model.MailingList).Append(" · ").Append(FigureFormat.Time(model.At)).Append('\n')
             .Append(DigestCautions.Summary(items)).Append("\n\n");
 
         foreach (var section in model.Sections)
@@ -19,7 +19,7 @@ internal static class DigestPlainText
                 .Append(section.SourceLine).Append('\n');
             foreach (var item in section.Items)
             {
-                var badge = item.IsActive ? AlertWording.SeverityLabel(item.Alert.Severity) : "RESOLVED";
+                var badge = item.IsActive ? AlertWording.SeverityLabel(item.Alert.Severity) : "CLEARED";
                 text.Append("  [").Append(badge).Append("] ");
                 if (item.IsActive)
                 {
@@ -27,9 +27,9 @@ internal static class DigestPlainText
                 }
 
                 text.Append(AlertWording.Phrase(item.Alert.Kind)).Append(": ").Append(item.Alert.Message);
-                if (item.Notification.Kind is NotificationKind.Renotified or NotificationKind.Escalated && item.Alert.FiredAt is { } fired)
+                if (item.Notification.Kind is NotificationKind.Reminder or NotificationKind.Escalated && item.Alert.ConfirmedAt is { } confirmed)
                 {
-                    text.Append(" (firing since ").Append(FigureFormat.Time(fired)).Append(')');
+                    text.Append(" (confirmed since ").Append(FigureFormat.Time(confirmed)).Append(')');
                 }
 
                 text.Append('\n');

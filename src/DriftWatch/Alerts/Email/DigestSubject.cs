@@ -3,34 +3,37 @@ using DriftWatch.Core.Alerting;
 namespace DriftWatch.Alerts.Email;
 
 /// <summary>
-/// "[DriftWatch] CRITICAL: 2 alerts — weighed_vs_declared became perfect": the worst severity among the
-/// active alerts, how many there are, and the worst one in words. A digest of recoveries only reads
-/// "[DriftWatch] RESOLVED: 1 alert cleared — …".
+/// "DriftWatch · orders_vs_refunds: slope changed (critical)": the pair and what changed lead, of the worst alert
+/// in the digest, then its severity (and whether it is an escalation or a reminder). Further alerts in the same
+/// digest follow as "+2 more". An all-clear leads only when nothing in the digest is active:
+/// "DriftWatch · orders_vs_refunds: slope changed (cleared)".
 /// </summary>
 internal static class DigestSubject
 {
-    public const string Prefix = "[DriftWatch]";
+    public const string Prefix = "DriftWatch ·";
 
     public static string For(IReadOnlyList<DigestItem> items)
     {
         ArgumentOutOfRangeException.ThrowIfZero(items.Count);
-        var active = DigestOrder.Sort(items.Where(i => i.IsActive));
-        var resolved = items.Count(i => !i.IsActive);
-        if (active.Count == 0)
-        {
-            var first = DigestOrder.Sort(items)[0];
-            return $"{Prefix} RESOLVED: {Alerts(resolved)} cleared — {first.Alert.Pair} {AlertWording.Phrase(first.Alert.Kind)}";
-        }
-
-        var worst = active[0];
-        var tail = resolved > 0 ? $", {resolved} resolved" : "";
-        return $"{Prefix} {AlertWording.SeverityLabel(worst.Alert.Severity)}: {Alerts(active.Count)}{tail} — {worst.Alert.Pair} {AlertWording.Phrase(worst.Alert.Kind)}";
+        var lead = DigestOrder.Sort(items)[0];
+        var more = items.Count > 1 ? $" +{items.Count - 1} more" : "";
+        return $"{Prefix} {lead.Alert.Pair}: {AlertWording.Headline(lead.Alert.Kind)} ({State(lead)}){more}";
     }
 
-    private static string Alerts(int n) => n == 1 ? "1 alert" : $"{n} alerts";
+    private static string State(DigestItem item)
+    {
+        var severity = Output.JsonContract.Name(item.Alert.Severity);
+        return item.Notification.Kind switch
+        {
+            NotificationKind.Cleared => "cleared",
+            NotificationKind.Escalated => severity + ", escalated",
+            NotificationKind.Reminder => severity + ", reminder",
+            _ => severity,
+        };
+    }
 }
 
-/// <summary>The order a digest lists things in: worst first, news before reminders, recoveries last.</summary>
+/// <summary>The order a digest lists things in: worst first, news before reminders, all-clears last.</summary>
 internal static class DigestOrder
 {
     public static IReadOnlyList<DigestItem> Sort(IEnumerable<DigestItem> items) =>
@@ -46,8 +49,8 @@ internal static class DigestOrder
     private static int Rank(NotificationKind kind) => kind switch
     {
         NotificationKind.Escalated => 0,
-        NotificationKind.Fired => 1,
-        NotificationKind.Renotified => 2,
+        NotificationKind.Confirmed => 1,
+        NotificationKind.Reminder => 2,
         _ => 3,
     };
 }

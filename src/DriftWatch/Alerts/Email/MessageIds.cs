@@ -5,7 +5,7 @@ using System.Text;
 namespace DriftWatch.Alerts.Email;
 
 /// <summary>
-/// Stable identifiers: the same route, cycle time and set of (alert, transition) always give the same
+/// Stable identifiers: the same mailing list, cycle time and set of (alert, transition) always give the same
 /// Message-Id, so a message re-sent after an ambiguous failure is recognisably the same one, and a retried
 /// cycle cannot queue it twice (the outbox's message_id is unique).
 /// </summary>
@@ -14,12 +14,12 @@ internal static class MessageIds
     public const string Domain = "driftwatch.local";
 
     /// <summary>A Message-Id without angle brackets, e.g. "dw-3f2a…@driftwatch.local".</summary>
-    public static string ForDigest(string route, DateTimeOffset at, IEnumerable<DigestItem> items)
+    public static string ForDigest(string mailingList, DateTimeOffset at, IEnumerable<DigestItem> items)
     {
         var keys = items
             .Select(Key)
             .Order(StringComparer.Ordinal);
-        var text = string.Join('\n', [route, at.ToUnixTimeMilliseconds().ToString(CultureInfo.InvariantCulture), .. keys]);
+        var text = string.Join('\n', [mailingList, at.ToUnixTimeMilliseconds().ToString(CultureInfo.InvariantCulture), .. keys]);
         return $"dw-{Hash(text, 24)}@{Domain}";
     }
 

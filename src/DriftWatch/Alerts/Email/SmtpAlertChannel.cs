@@ -14,12 +14,12 @@ internal sealed class SmtpAlertChannel(SmtpConfig? smtp, TimeSpan? timeout = nul
 
     public ChannelKind Kind => ChannelKind.Smtp;
 
-    public async Task SendAsync(OutboxEntry entry, MimeMessage message, RouteConfig route, CancellationToken cancellationToken)
+    public async Task SendAsync(OutboxEntry entry, MimeMessage message, MailingListConfig list, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(message);
         if (smtp is null)
         {
-            throw new ChannelUnavailableException($"Route '{route.Name}' sends by SMTP but alerting.smtp is not configured.");
+            throw new ChannelUnavailableException($"Mailing list '{list.Name}' sends by SMTP but alerting.smtp is not configured.");
         }
 
         using var client = new SmtpClient { Timeout = (int)(timeout ?? DefaultTimeout).TotalMilliseconds };

@@ -4,7 +4,7 @@ using MimeKit;
 namespace DriftWatch.Alerts.File;
 
 /// <summary>
-/// Writes the stored message, byte for byte, as "&lt;message-id&gt;.eml" in the route's directory: for setups
+/// Writes the stored message, byte for byte, as "&lt;message-id&gt;.eml" in the mailing list's directory: for setups
 /// without mail, and for audit. Idempotent: a retry rewrites the same file (written aside, then moved in, so a
 /// reader never sees half a message).
 /// </summary>
@@ -12,27 +12,27 @@ internal sealed class FileAlertChannel : IAlertChannel
 {
     public ChannelKind Kind => ChannelKind.File;
 
-    public async Task SendAsync(OutboxEntry entry, MimeMessage message, RouteConfig route, CancellationToken cancellationToken)
+    public async Task SendAsync(OutboxEntry entry, MimeMessage message, MailingListConfig list, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(entry);
-        ArgumentNullException.ThrowIfNull(route);
-        if (string.IsNullOrWhiteSpace(route.Directory))
+        ArgumentNullException.ThrowIfNull(list);
+        if (string.IsNullOrWhiteSpace(list.Directory))
         {
-            throw new ChannelUnavailableException($"Route '{route.Name}' writes files but has no directory configured.");
+            throw new ChannelUnavailableException($"Mailing list '{list.Name}' writes files but has no directory configured.");
         }
 
         var bytes = entry.Mime ?? throw new InvalidOperationException($"Outbox entry {entry.Id} was loaded without its message.");
-        var path = PathFor(route.Directory, entry.MessageId);
+        var path = PathFor(list.Directory, entry.MessageId);
         var temporary = path + ".part";
         try
         {
-            Directory.CreateDirectory(route.Directory);
+            Directory.CreateDirectory(list.Directory);
             await System.IO.File.WriteAllBytesAsync(temporary, bytes, cancellationToken);
             System.IO.File.Move(temporary, path, overwrite: true);
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
         {
-            throw new ChannelUnavailableException($"Route '{route.Name}' cannot write to {route.Directory}: {ex.Message}", ex);
+            throw new ChannelUnavailableException($"Mailing list '{list.Name}' cannot write to {list.Directory}: {ex.Message}", ex);
         }
     }
 

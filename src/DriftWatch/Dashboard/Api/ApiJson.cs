@@ -56,9 +56,9 @@ internal sealed record RunsResponse(string Pair, int Page, int PageSize, int Pag
 /// <summary>GET /api/alerts.</summary>
 internal sealed record AlertsResponse(
     DateTimeOffset GeneratedAt,
-    DateTimeOffset ResolvedSince,
+    DateTimeOffset ClearedSince,
     IReadOnlyList<AlertJson> Open,
-    IReadOnlyList<AlertJson> Resolved,
+    IReadOnlyList<AlertJson> Cleared,
     IReadOnlyList<DeliveryJson> Deliveries);
 
 internal sealed record AlertJson(
@@ -70,16 +70,16 @@ internal sealed record AlertJson(
     int ConsecutiveRuns,
     DateTimeOffset FirstSeen,
     DateTimeOffset LastSeen,
-    DateTimeOffset? FiredAt,
+    DateTimeOffset? ConfirmedAt,
     DateTimeOffset? LastNotifiedAt,
-    DateTimeOffset? ResolvedAt,
+    DateTimeOffset? ClearedAt,
     DateTimeOffset? AckedAt,
     string Message,
     long? LastRunId);
 
 internal sealed record DeliveryJson(
     long Id,
-    string Route,
+    string MailingList,
     string Channel,
     string Subject,
     IReadOnlyList<string> Recipients,

@@ -66,7 +66,7 @@ internal static class ApiMapping
         ArgumentNullException.ThrowIfNull(alert);
         return new AlertJson(
             alert.Id, alert.Pair, alert.Kind, alert.Severity, alert.Status, alert.ConsecutiveRuns, alert.FirstSeen, alert.LastSeen,
-            alert.FiredAt, alert.LastNotifiedAt, alert.ResolvedAt, alert.AckedAt, alert.Message, alert.LastRunId);
+            alert.ConfirmedAt, alert.LastNotifiedAt, alert.ClearedAt, alert.AckedAt, alert.Message, alert.LastRunId);
     }
 
     public static DeliveryJson ToJson(OutboxEntry entry)
@@ -74,7 +74,7 @@ internal static class ApiMapping
         ArgumentNullException.ThrowIfNull(entry);
         return new DeliveryJson(
             entry.Id,
-            entry.Route,
+            entry.MailingList,
             JsonContract.Name(entry.Channel),
             entry.Subject,
             entry.Recipients,
@@ -89,7 +89,7 @@ internal static class ApiMapping
     public static AlertsResponse ToJson(AlertsOverview overview, DateTimeOffset now)
     {
         ArgumentNullException.ThrowIfNull(overview);
-        return new AlertsResponse(now, overview.ResolvedSince, [.. overview.Open.Select(ToJson)], [.. overview.Resolved.Select(ToJson)], [.. overview.Deliveries.Select(ToJson)]);
+        return new AlertsResponse(now, overview.ClearedSince, [.. overview.Open.Select(ToJson)], [.. overview.Cleared.Select(ToJson)], [.. overview.Deliveries.Select(ToJson)]);
     }
 
     private static double? Finite(double? value) => value is { } v && double.IsFinite(v) ? v : null;

@@ -18,7 +18,7 @@ internal sealed class DashboardReader(DriftWatchConfig config, IHistoryStore his
     /// <summary>Recent runs searched for one that still has its sampled points (older ones lose them to retention).</summary>
     public const int PlotLookback = 10;
 
-    /// <summary>Resolved alerts stay on the alerts page this long.</summary>
+    /// <summary>Cleared alerts stay on the alerts page this long.</summary>
     public static readonly TimeSpan RecentAlerts = TimeSpan.FromDays(7);
 
     public const int MaxAlerts = 500;
@@ -48,15 +48,15 @@ internal sealed class DashboardReader(DriftWatchConfig config, IHistoryStore his
     }
 
     /// <summary>
-    /// The pair a route value names, or null. A '/' in a name reaches the route as "%2F" (the server does not
+    /// The pair a URL path segment names, or null. A '/' in a name reaches the endpoint as "%2F" (the server does not
     /// decode it in paths), so that spelling is tried too.
     /// </summary>
-    public async Task<string?> ResolvePairAsync(string routeValue, CancellationToken cancellationToken)
+    public async Task<string?> ResolvePairAsync(string segment, CancellationToken cancellationToken)
     {
-        ArgumentNullException.ThrowIfNull(routeValue);
-        string[] candidates = routeValue.Contains("%2F", StringComparison.OrdinalIgnoreCase)
-            ? [routeValue, routeValue.Replace("%2F", "/", StringComparison.OrdinalIgnoreCase)]
-            : [routeValue];
+        ArgumentNullException.ThrowIfNull(segment);
+        string[] candidates = segment.Contains("%2F", StringComparison.OrdinalIgnoreCase)
+            ? [segment, segment.Replace("%2F", "/", StringComparison.OrdinalIgnoreCase)]
+            : [segment];
         foreach (var candidate in candidates)
         {
             if (config.FindPair(candidate) is not null || await history.CountRunsAsync(candidate, cancellationToken) > 0)
@@ -102,7 +102,7 @@ internal sealed class DashboardReader(DriftWatchConfig config, IHistoryStore his
         return new PairDetail(summary, pageRuns, page, pageSize, total, trend, plotRun, recent, needed);
     }
 
-    /// <summary>Open alerts, recently resolved ones and the outbox; of one pair only when <paramref name="pair"/> is set.</summary>
+    /// <summary>Open alerts, recently cleared ones and the outbox; of one pair only when <paramref name="pair"/> is set.</summary>
     public async Task<AlertsOverview> GetAlertsAsync(string? pair, CancellationToken cancellationToken)
     {
         var since = time.GetUtcNow() - RecentAlerts;
@@ -110,7 +110,7 @@ internal sealed class DashboardReader(DriftWatchConfig config, IHistoryStore his
         var outbox = await alerts.ListOutboxAsync(unsentOnly: false, MaxDeliveries, cancellationToken);
         return new AlertsOverview(
             [.. listed.Where(a => a.IsOpen).OrderByDescending(a => a.Severity).ThenByDescending(a => a.LastSeen)],
-            [.. listed.Where(a => !a.IsOpen).OrderByDescending(a => a.ResolvedAt)],
+            [.. listed.Where(a => !a.IsOpen).OrderByDescending(a => a.ClearedAt)],
             since,
             outbox);
     }

@@ -6,8 +6,8 @@ namespace DriftWatch.Dashboard.Data;
 /// </summary>
 internal enum PairStatus
 {
-    /// <summary>An alert of warning or worse is firing: people were (or would have been) told.</summary>
-    Firing,
+    /// <summary>An alert of warning or worse is confirmed: people were (or would have been) told.</summary>
+    Confirmed,
 
     /// <summary>The latest check failed: the pair is not being watched right now.</summary>
     Failing,
@@ -15,8 +15,8 @@ internal enum PairStatus
     /// <summary>The latest check ran but had nothing to measure (no rows, too few usable rows, a constant column).</summary>
     Unmeasurable,
 
-    /// <summary>A warning or worse was seen but has not persisted long enough to fire.</summary>
-    Pending,
+    /// <summary>A warning or worse was seen but not yet in enough runs in a row to be confirmed.</summary>
+    Watching,
 
     /// <summary>Checks run, but there is nothing to compare with yet (or the baseline was reset).</summary>
     NoBaseline,

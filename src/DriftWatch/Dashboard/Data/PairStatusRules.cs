@@ -8,16 +8,16 @@ namespace DriftWatch.Dashboard.Data;
 internal static class PairStatusRules
 {
     /// <summary>
-    /// A failed or unmeasurable latest check comes first among the facts (what the pair shows now is stale), then firing,
-    /// then pending. Info alerts stay pending for ever by design (dashboard only), so they do not make a pair
-    /// pending. A pair without a baseline can still fire on its own profile (perfect_relationship, outliers).
+    /// A failed or unmeasurable latest check comes first among the facts (what the pair shows now is stale), then confirmed,
+    /// then watching. Info alerts stay watching for ever by design (dashboard only), so they do not make a pair
+    /// watching. A pair without a baseline can still have an alert confirmed on its own profile (perfect_relationship, outliers).
     /// </summary>
     public static PairStatus Derive(RunRecord? latest, IReadOnlyCollection<AlertState> openAlerts, bool hasBaseline)
     {
         ArgumentNullException.ThrowIfNull(openAlerts);
         if (latest is null)
         {
-            return openAlerts.Any(a => a.Status == AlertStatus.Firing) ? PairStatus.Firing : PairStatus.NoRuns;
+            return openAlerts.Any(a => a.Status == AlertStatus.Confirmed) ? PairStatus.Confirmed : PairStatus.NoRuns;
         }
 
         if (latest.Status == RunStatus.Failed)
@@ -31,14 +31,14 @@ internal static class PairStatusRules
         }
 
         var serious = openAlerts.Where(a => a.IsOpen && a.Severity >= Severity.Warning).ToArray();
-        if (serious.Any(a => a.Status == AlertStatus.Firing))
+        if (serious.Any(a => a.Status == AlertStatus.Confirmed))
         {
-            return PairStatus.Firing;
+            return PairStatus.Confirmed;
         }
 
         if (serious.Length > 0)
         {
-            return PairStatus.Pending;
+            return PairStatus.Watching;
         }
 
         return hasBaseline ? PairStatus.Healthy : PairStatus.NoBaseline;

@@ -15,7 +15,7 @@ namespace DriftWatch.Dashboard.Metrics;
 /// <item><c>driftwatch_runs_total{pair,status}</c>: runs recorded since this process first answered a scrape
 /// (its <c>_created</c>). Counting every stored run instead would fall when retention prunes old runs, and an
 /// OpenMetrics counter must not decrease except by a reset to 0.</item>
-/// <item><c>driftwatch_open_alerts{severity}</c>: pending and firing alerts now, a gauge.</item>
+/// <item><c>driftwatch_open_alerts{severity}</c>: open (watching or confirmed) alerts now, a gauge.</item>
 /// <item><c>driftwatch_check_duration_seconds</c>: start-to-finish time of the same runs, a histogram.</item>
 /// </list>
 /// The aggregate is one SQL statement over the runs table (both dialects), because the history store's
@@ -52,7 +52,7 @@ internal sealed class DashboardMetrics(IStoreDatabase database, IAlertStore aler
             }
         }
 
-        text.Family("driftwatch_open_alerts", "gauge", "Open (pending or firing) alerts by severity.");
+        text.Family("driftwatch_open_alerts", "gauge", "Open (watching or confirmed) alerts by severity.");
         foreach (var severity in Enum.GetValues<Severity>())
         {
             text.Sample("driftwatch_open_alerts", [("severity", JsonContract.Name(severity))], OpenMetricsText.Integer(open.Count(a => a.Severity == severity)));

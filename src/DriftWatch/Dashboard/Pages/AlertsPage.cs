@@ -6,7 +6,7 @@ using DriftWatch.Output;
 
 namespace DriftWatch.Dashboard.Pages;
 
-/// <summary>Open and recently resolved alerts with their lifecycle times, and the delivery state of every queued message.</summary>
+/// <summary>Open and recently cleared alerts with their lifecycle times, and the delivery state of every queued message.</summary>
 internal static class AlertsPage
 {
     public static string Render(PageContext context, AlertsOverview overview)
@@ -17,13 +17,13 @@ internal static class AlertsPage
         {
             html.Open("div", ("class", "page-head"));
             html.Element("h1", "Alerts");
-            html.Element("p", "One alert per pair and finding kind, from first sighting to resolution. Info findings stay pending: they are shown, never sent.", ("class", "lede"));
+            html.Element("p", "One alert per pair and finding kind, from first sighting until a check shows it gone. An alert is confirmed once enough runs in a row carry it; until then it is watching. Info findings stay watching: they are shown, never sent.", ("class", "lede"));
             html.Close("div");
 
             html.Open("section", ("class", "tally"), ("aria-label", "Alerts by state"));
-            Tile(html, overview.Open.Count(a => a.Status == AlertStatus.Firing), "firing", "st-firing");
-            Tile(html, overview.Open.Count(a => a.Status == AlertStatus.Pending), "pending", "st-pending");
-            Tile(html, overview.Resolved.Count, "resolved in 7 days", "st-healthy");
+            Tile(html, overview.Open.Count(a => a.Status == AlertStatus.Confirmed), "confirmed", "st-confirmed");
+            Tile(html, overview.Open.Count(a => a.Status == AlertStatus.Watching), "watching", "st-watching");
+            Tile(html, overview.Cleared.Count, "cleared in 7 days", "st-healthy");
             Tile(html, overview.Deliveries.Count(d => !d.IsSent), "unsent", overview.Deliveries.Any(d => !d.IsSent && d.Attempts > 0) ? "st-failing" : "st-no_runs");
             html.Close("section");
 
@@ -40,15 +40,15 @@ internal static class AlertsPage
 
             html.Close("section");
 
-            html.Open("section", ("class", "card"), ("aria-labelledby", "resolved-title"));
-            html.Element("h2", "Resolved since " + Display.Time(overview.ResolvedSince), ("id", "resolved-title"));
-            if (overview.Resolved.Count == 0)
+            html.Open("section", ("class", "card"), ("aria-labelledby", "cleared-title"));
+            html.Element("h2", "Cleared since " + Display.Time(overview.ClearedSince), ("id", "cleared-title"));
+            if (overview.Cleared.Count == 0)
             {
                 html.Element("p", "None.", ("class", "muted"));
             }
             else
             {
-                AlertsTable.Render(html, context, overview.Resolved, showPair: true, id: "resolved-alerts");
+                AlertsTable.Render(html, context, overview.Cleared, showPair: true, id: "cleared-alerts");
             }
 
             html.Close("section");
@@ -56,11 +56,11 @@ internal static class AlertsPage
         });
     }
 
-    /// <summary>"sent", "pending" (not tried yet), "retrying" (failed at least once, will try again).</summary>
+    /// <summary>"sent", "queued" (not tried yet), "retrying" (failed at least once, will try again).</summary>
     public static string DeliveryState(OutboxEntry entry)
     {
         ArgumentNullException.ThrowIfNull(entry);
-        return entry.IsSent ? "sent" : entry.Attempts == 0 ? "pending" : "retrying";
+        return entry.IsSent ? "sent" : entry.Attempts == 0 ? "queued" : "retrying";
     }
 
     private static void Tile(Html html, int n, string label, string css)
@@ -86,7 +86,7 @@ internal static class AlertsPage
         html.Open("div", ("class", "table-wrap"));
         html.Open("table", ("class", "grid"), ("id", "deliveries"));
         html.Open("thead").Open("tr");
-        foreach (var header in new[] { "Queued (UTC)", "Route", "Channel", "Subject", "Recipients", "State", "Attempts", "Sent / next attempt", "Last error" })
+        foreach (var header in new[] { "Queued (UTC)", "Mailing list", "Channel", "Subject", "Recipients", "State", "Attempts", "Sent / next attempt", "Last error" })
         {
             html.Element("th", header, ("scope", "col"));
         }
@@ -98,7 +98,7 @@ internal static class AlertsPage
             var state = DeliveryState(entry);
             html.Open("tr", ("data-delivery", state));
             AlertsTable.TimeCell(html, context, entry.CreatedAt);
-            html.Element("td", entry.Route);
+            html.Element("td", entry.MailingList);
             html.Element("td", JsonContract.Name(entry.Channel));
             html.Element("td", entry.Subject, ("class", "message"));
             html.Element("td", string.Join(", ", entry.Recipients));

@@ -17,7 +17,7 @@ internal static class AlertsTable
             headers.Add("Pair");
         }
 
-        headers.AddRange(["Kind", "Severity", "Status", "First seen (UTC)", "Fired", "Last notified", "Resolved", "Acknowledged", "Runs in a row", "Message"]);
+        headers.AddRange(["Kind", "Severity", "Status", "First seen (UTC)", "Confirmed", "Last notified", "Cleared", "Acknowledged", "Runs in a row", "Message"]);
         foreach (var header in headers)
         {
             html.Element("th", header, ("scope", "col"));
@@ -52,9 +52,9 @@ internal static class AlertsTable
             Badges.AlertStatus(html, alert.Status);
             html.Close("td");
             TimeCell(html, context, alert.FirstSeen);
-            TimeCell(html, context, alert.FiredAt);
+            TimeCell(html, context, alert.ConfirmedAt);
             TimeCell(html, context, alert.LastNotifiedAt);
-            TimeCell(html, context, alert.ResolvedAt);
+            TimeCell(html, context, alert.ClearedAt);
             TimeCell(html, context, alert.AckedAt);
             html.Element("td", alert.ConsecutiveRuns.ToString("N0", CultureInfo.InvariantCulture), ("class", "num"));
             html.Element("td", alert.Message, ("class", "message"));

@@ -15,10 +15,10 @@ internal static class Badges
 
     public static string Glyph(PairStatus status) => status switch
     {
-        PairStatus.Firing => "▲",
+        PairStatus.Confirmed => "▲",
         PairStatus.Failing => "✕",
         PairStatus.Unmeasurable => "∅",
-        PairStatus.Pending => "◔",
+        PairStatus.Watching => "◔",
         PairStatus.NoBaseline => "○",
         PairStatus.NoRuns => "·",
         _ => "✓",

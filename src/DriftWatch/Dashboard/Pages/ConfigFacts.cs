@@ -51,7 +51,7 @@ internal static class ConfigFacts
             BaselineFacts.Fact(html, "Tags", string.Join(", ", pair.Tags));
         }
 
-        BaselineFacts.Fact(html, "Routes", pair.Notify.Count == 0 ? "every matching route" : string.Join(", ", pair.Notify));
+        BaselineFacts.Fact(html, "Mailing lists", pair.Notify.Count == 0 ? "every list whose tags match" : string.Join(", ", pair.Notify));
         var changed = ChangedThresholds(pair.Thresholds);
         BaselineFacts.Fact(html, "Thresholds", changed.Count == 0 ? "all defaults" : string.Join("; ", changed.Select(c => $"{c.Name} {c.Value} (default {c.Default})")));
         html.Close("dl");

@@ -2,7 +2,7 @@ using System.Globalization;
 
 namespace DriftWatch.Dashboard.Pages;
 
-/// <summary>Where the pages link to: server routes, or relative file names in a static export.</summary>
+/// <summary>Where the pages link to: server paths, or relative file names in a static export.</summary>
 internal abstract class PageLinks
 {
     public abstract string Overview { get; }

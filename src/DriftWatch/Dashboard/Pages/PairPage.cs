@@ -86,7 +86,7 @@ internal static class PairPage
             html.Open("div", ("class", "callout callout-failing callout-unmeasurable"), ("role", "status"));
             html.Element("strong", "Unmeasurable: the latest check had nothing to measure. ");
             html.Text(empty.Error ?? "no reason was recorded");
-            html.Text(" It counts toward the check-failing alert and resolves no alert.");
+            html.Text(" It counts toward the check-failing alert and clears no alert.");
             html.Close("div");
         }
     }

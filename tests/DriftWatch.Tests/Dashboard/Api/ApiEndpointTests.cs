@@ -17,7 +17,7 @@ public sealed class ApiEndpointTests(DashboardFixture fixture)
         using var json = JsonDocument.Parse(body);
         var pairs = json.RootElement.GetProperty("pairs").EnumerateArray().ToDictionary(p => p.GetProperty("name").GetString()!);
         Assert.Equal(5, pairs.Count);
-        Assert.Equal("firing", pairs[DashboardScenario.Perfect].GetProperty("status").GetString());
+        Assert.Equal("confirmed", pairs[DashboardScenario.Perfect].GetProperty("status").GetString());
         Assert.Equal("failing", pairs[DashboardScenario.Failing].GetProperty("status").GetString());
         Assert.Equal("no_baseline", pairs[DashboardScenario.Young].GetProperty("status").GetString());
         Assert.Equal("healthy", pairs[DashboardScenario.Healthy].GetProperty("status").GetString());
@@ -79,9 +79,9 @@ public sealed class ApiEndpointTests(DashboardFixture fixture)
         using var json = JsonDocument.Parse(body);
         var open = json.RootElement.GetProperty("open").EnumerateArray().ToArray();
         var perfect = open.Single(a => a.GetProperty("pair").GetString() == DashboardScenario.Perfect && a.GetProperty("kind").GetString() == "became_perfect");
-        Assert.Equal("firing", perfect.GetProperty("status").GetString());
-        // Critical findings fire at the first run (alerting.critical_persistence = 1): the first exact cycle, 12, plus a minute.
-        Assert.Equal(DashboardScenario.Start + DashboardScenario.Interval * 12 + TimeSpan.FromMinutes(1), perfect.GetProperty("fired_at").GetDateTimeOffset());
+        Assert.Equal("confirmed", perfect.GetProperty("status").GetString());
+        // Critical findings are confirmed at the first run (alerting.critical_confirm_runs = 1): the first exact cycle, 12, plus a minute.
+        Assert.Equal(DashboardScenario.Start + DashboardScenario.Interval * 12 + TimeSpan.FromMinutes(1), perfect.GetProperty("confirmed_at").GetDateTimeOffset());
         Assert.Equal(4, perfect.GetProperty("consecutive_runs").GetInt32());
         var failing = open.Single(a => a.GetProperty("kind").GetString() == "check_failing");
         Assert.Equal(3, failing.GetProperty("consecutive_runs").GetInt32());

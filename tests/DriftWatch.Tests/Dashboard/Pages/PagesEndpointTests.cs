@@ -24,15 +24,15 @@ public sealed class PagesEndpointTests(DashboardFixture fixture)
         var rows = PageHtml.OverviewRows(html);
         Assert.Equal(
             [
-                ("firing", DashboardScenario.Hostile),
-                ("firing", DashboardScenario.Perfect),
+                ("confirmed", DashboardScenario.Hostile),
+                ("confirmed", DashboardScenario.Perfect),
                 ("failing", DashboardScenario.Failing),
                 ("no_baseline", DashboardScenario.Young),
                 ("healthy", DashboardScenario.Healthy),
             ],
             rows.Select(r => (r.Status, r.Pair)));
         // The tally counts the same.
-        Assert.Matches("st-firing\"[^>]*><span class=\"tile-n\">2<", html);
+        Assert.Matches("st-confirmed\"[^>]*><span class=\"tile-n\">2<", html);
         Assert.Matches("st-failing\"[^>]*><span class=\"tile-n\">1<", html);
         Assert.Matches("st-healthy\"[^>]*><span class=\"tile-n\">1<", html);
         Assert.Contains(Cautions.SignalsNotProof, html, StringComparison.Ordinal);
@@ -171,7 +171,7 @@ public sealed class PagesEndpointTests(DashboardFixture fixture)
         var open = Regex.Match(html, "<table class=\"grid\" id=\"open-alerts\">.*?</table>", RegexOptions.Singleline).Value;
         Assert.Contains(">became perfect</td>", open, StringComparison.Ordinal);
         Assert.Contains(">check failing</td>", open, StringComparison.Ordinal);
-        // check_failing fired at the third failed check (alerting.check_failing_after = 3): the last cycle, plus a minute.
+        // check_failing was confirmed at the third failed check (alerting.check_failing_after = 3): the last cycle, plus a minute.
         Assert.Contains("<time datetime=\"2026-11-30T18:01:00Z\"", open, StringComparison.Ordinal);
 
         Assert.Equal(Scenario.OutboxCount - 1, PageHtml.Count(html, "data-delivery=\"sent\""));

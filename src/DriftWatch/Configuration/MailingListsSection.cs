@@ -3,37 +3,37 @@ using DriftWatch.Core.Findings;
 
 namespace DriftWatch.Configuration;
 
-/// <summary><c>alerting.routes:</c> who hears about which findings, and through which channel.</summary>
-internal static class RoutesSection
+/// <summary><c>alerting.mailing_lists:</c> who hears about which findings, and through which channel.</summary>
+internal static class MailingListsSection
 {
-    public static IReadOnlyList<RouteConfig> Read(MappingReader alerting, bool smtpGiven, out IReadOnlySet<string> declared)
+    public static IReadOnlyList<MailingListConfig> Read(MappingReader alerting, bool smtpGiven, out IReadOnlySet<string> declared)
     {
-        var routes = new List<RouteConfig>();
+        var lists = new List<MailingListConfig>();
         var seen = new Dictionary<string, long>(StringComparer.Ordinal);
-        foreach (var (node, path) in alerting.Items("routes"))
+        foreach (var (node, path) in alerting.Items("mailing_lists"))
         {
-            var reader = MappingReader.OpenItem(alerting.Context, node, path, ConfigKeys.Route, "a route needs a name and a channel");
+            var reader = MappingReader.OpenItem(alerting.Context, node, path, ConfigKeys.MailingList, "a mailing list needs a name and a channel");
             if (reader is null)
             {
                 continue;
             }
 
             var errorsBefore = alerting.Context.ErrorCount;
-            var route = ReadRoute(reader, seen, smtpGiven);
+            var list = ReadList(reader, seen, smtpGiven);
             reader.Done();
-            if (route is not null && alerting.Context.ErrorCount == errorsBefore)
+            if (list is not null && alerting.Context.ErrorCount == errorsBefore)
             {
-                routes.Add(route);
+                lists.Add(list);
             }
         }
 
         declared = seen.Keys.ToHashSet(StringComparer.Ordinal);
-        return routes;
+        return lists;
     }
 
-    private static RouteConfig? ReadRoute(MappingReader reader, Dictionary<string, long> seen, bool smtpGiven)
+    private static MailingListConfig? ReadList(MappingReader reader, Dictionary<string, long> seen, bool smtpGiven)
     {
-        var name = NameSection.Read(reader, "route", seen);
+        var name = NameSection.Read(reader, "mailing list", seen);
         var channel = reader.Choice("channel", ("smtp", ChannelKind.Smtp), ("file", ChannelKind.File)) ?? ChannelKind.Smtp;
         var recipients = new List<string>();
         foreach (var (text, at, path) in reader.TextList("recipients"))
@@ -48,7 +48,7 @@ internal static class RoutesSection
             }
         }
 
-        var minSeverity = reader.Choice("min_severity", ("info", Severity.Info), ("warning", Severity.Warning), ("critical", Severity.Critical))
+        var fromSeverity = reader.Choice("from_severity", ("info", Severity.Info), ("warning", Severity.Warning), ("critical", Severity.Critical))
             ?? Severity.Warning;
         var tags = PairsSection.ReadTags(reader, "tags");
         var includePlot = reader.Bool("include_plot") ?? true;
@@ -77,12 +77,12 @@ internal static class RoutesSection
 
         return name is null
             ? null
-            : new RouteConfig
+            : new MailingListConfig
             {
                 Name = name,
                 Channel = channel,
                 Recipients = recipients,
-                MinSeverity = minSeverity,
+                FromSeverity = fromSeverity,
                 Tags = tags,
                 IncludePlot = includePlot,
                 Directory = directory is null ? null : reader.Context.ResolvePath(directory),
