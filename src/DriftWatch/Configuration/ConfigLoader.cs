@@ -110,6 +110,7 @@ internal static class ConfigLoader
         var pairs = PairsSection.Read(root, defaults, sources, declaredSources, declaredRoutes, store);
         var dashboard = DashboardSection.Read(root.Mapping("dashboard", ConfigKeys.Dashboard));
         var logging = LoggingSection.Read(root.Mapping("logging", ConfigKeys.Logging));
+        var worker = WorkerSection.Read(root.Mapping("worker", ConfigKeys.Worker));
         root.Done();
         return new DriftWatchConfig
         {
@@ -119,6 +120,7 @@ internal static class ConfigLoader
             Alerting = alerting,
             Dashboard = dashboard,
             Logging = logging,
+            Worker = worker,
         };
     }
 

@@ -121,5 +121,7 @@ internal static class FullConfig
           format: json
           file: logs/dw.log
           level: debug
+        worker:
+          stop_grace: 45s
         """;
 }
