@@ -18,6 +18,8 @@ public sealed record DriftWatchConfig
 
     public LoggingConfig Logging { get; init; } = new();
 
+    public WorkerConfig Worker { get; init; } = new();
+
     public SourceConfig? FindSource(string name) =>
         Sources.FirstOrDefault(s => string.Equals(s.Name, name, StringComparison.Ordinal));
 

@@ -109,8 +109,10 @@ internal sealed class OutboxDispatcher(
     {
         var attempt = entry.Attempts + 1;
         var next = time.GetUtcNow() + RetryBackoff.Delay(attempt, options, jitter);
-        logger.LogWarning(ex, "Alert message {MessageId} on mailing list {MailingList} failed (attempt {Attempt}); next attempt at {NextAttempt}",
-            entry.MessageId, entry.MailingList, attempt, next);
+        // One line per failed attempt: an outage repeats it every retry, so the stack trace waits for debug level.
+        logger.LogWarning("Alert message {MessageId} on mailing list {MailingList} failed (attempt {Attempt}): {Reason}; next attempt at {NextAttempt}",
+            entry.MessageId, entry.MailingList, attempt, ex.Message, next);
+        logger.LogDebug(ex, "Alert message {MessageId} failed with this exception", entry.MessageId);
         try
         {
             await store.MarkFailedAsync(entry.Id, ex.Message, next, cancellationToken);

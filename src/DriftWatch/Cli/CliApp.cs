@@ -48,6 +48,13 @@ internal static class CliApp
             // Exceptions reach the catch blocks below, so a usage problem is one line, not a stack trace.
             EnableDefaultExceptionHandler = false,
         };
+        if (RunCommand.StopsOnItsOwn(parsed))
+        {
+            // The worker's host handles SIGTERM and Ctrl+C itself and decides how long a stop takes (the checks'
+            // grace); left to the command line, the process would end two seconds after the signal, exit 143.
+            invocation.ProcessTerminationTimeout = null;
+        }
+
 
         try
         {

@@ -1,5 +1,8 @@
 using System.CommandLine;
+using System.CommandLine.Parsing;
+using DriftWatch.Dashboard;
 using DriftWatch.Hosting;
+using Microsoft.AspNetCore.Builder;
 using Microsoft.Extensions.Hosting;
 
 namespace DriftWatch.Cli;
@@ -7,14 +10,16 @@ namespace DriftWatch.Cli;
 /// <summary><c>driftwatch run</c>: the hosted worker, until SIGTERM or Ctrl+C.</summary>
 internal static class RunCommand
 {
+    public const string Name = "run";
+
     public static Command Create(CliConsole console)
     {
         ArgumentNullException.ThrowIfNull(console);
         var config = ConfigOption.Create();
         var command = new Command(
-            "run",
+            Name,
             "Run the worker: check every pair on its cron schedule, evaluate alerts, deliver email and serve the dashboard. " +
-            "Stops cleanly on SIGTERM or Ctrl+C (running checks get a grace period to finish).")
+            "Stops cleanly on SIGTERM or Ctrl+C (running checks get a grace period to finish, worker.stop_grace).")
         {
             config,
         };
@@ -26,11 +31,52 @@ internal static class RunCommand
                 return ExitCodes.UsageError;
             }
 
+            // A taken port or an address not on this machine stops the start here, before any check is scheduled.
+            var endPoint = WorkerHost.ListenEndPoint(loaded);
+            if (DashboardBinding.Probe(endPoint) is { } problem)
+            {
+                console.WriteError(problem);
+                return ExitCodes.UsageError;
+            }
+
             await using var app = WorkerHost.Build(loaded);
-            await app.StartAsync(ct);
+            if (!await StartAsync(app, endPoint, console, ct))
+            {
+                return ExitCodes.UsageError;
+            }
+
+            // The host's lifetime handles SIGTERM and Ctrl+C (see StopsOnItsOwn): this returns once it has
+            // stopped, after the checks' grace.
             await app.WaitForShutdownAsync(ct);
             return ExitCodes.Healthy;
         });
         return command;
+    }
+
+    /// <summary>
+    /// True for <c>run</c>: it stops through its host, which gives running checks their grace; the command line's
+    /// own handling of SIGTERM would end the process two seconds after the signal.
+    /// </summary>
+    public static bool StopsOnItsOwn(ParseResult parsed)
+    {
+        ArgumentNullException.ThrowIfNull(parsed);
+        return parsed.CommandResult.Command.Name == Name && parsed.CommandResult.Parent is CommandResult { Command: RootCommand };
+    }
+
+    private static async Task<bool> StartAsync(WebApplication app, System.Net.IPEndPoint endPoint, CliConsole console, CancellationToken cancellationToken)
+    {
+        try
+        {
+            await app.StartAsync(cancellationToken);
+            return true;
+        }
+        catch (Exception ex) when (DashboardBinding.Failure(endPoint, ex) is not null)
+        {
+            // Taken between the probe and the start: the same one line, and whatever had started is stopped.
+            console.WriteError(DashboardBinding.Failure(endPoint, ex)!);
+            using var stop = new CancellationTokenSource(TimeSpan.FromSeconds(5));
+            await app.StopAsync(stop.Token);
+            return false;
+        }
     }
 }

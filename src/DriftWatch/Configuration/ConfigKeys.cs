@@ -62,6 +62,8 @@ internal static class ConfigKeys
 
     public static readonly KeyLevel Logging = new("logging", ["format", "file", "level"]);
 
+    public static readonly KeyLevel Worker = new("worker", ["stop_grace"]);
+
     public static readonly KeyLevel Root = new(
         "root",
         ("sources", Source),
@@ -70,5 +72,6 @@ internal static class ConfigKeys
         ("pairs", Pair),
         ("alerting", Alerting),
         ("dashboard", Dashboard),
-        ("logging", Logging));
+        ("logging", Logging),
+        ("worker", Worker));
 }

@@ -29,12 +29,13 @@ internal static class ConfigLoader
                 return FileError(path, "cannot read the configuration: no such file");
             }
 
-            if (info.Length > MaxFileBytes)
+            // The length a file reports is not trusted (a device or a pipe reports 0): the read itself stops at the limit.
+            if (BoundedFile.ReadText(fullPath, MaxFileBytes) is not { } read)
             {
-                return FileError(path, $"the file is {info.Length} bytes; a configuration may have at most {MaxFileBytes}");
+                return FileError(path, $"the file is larger than {MaxFileBytes} bytes (1 MiB), the most a configuration may have; reading stopped there");
             }
 
-            text = File.ReadAllText(fullPath);
+            text = read;
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or ArgumentException or NotSupportedException)
         {
@@ -109,6 +110,7 @@ internal static class ConfigLoader
         var pairs = PairsSection.Read(root, defaults, sources, declaredSources, declaredLists, store);
         var dashboard = DashboardSection.Read(root.Mapping("dashboard", ConfigKeys.Dashboard));
         var logging = LoggingSection.Read(root.Mapping("logging", ConfigKeys.Logging));
+        var worker = WorkerSection.Read(root.Mapping("worker", ConfigKeys.Worker));
         root.Done();
         return new DriftWatchConfig
         {
@@ -118,6 +120,7 @@ internal static class ConfigLoader
             Alerting = alerting,
             Dashboard = dashboard,
             Logging = logging,
+            Worker = worker,
         };
     }
 

@@ -1,5 +1,5 @@
-using System.Net;
 using DriftWatch.Core.Configuration;
+using DriftWatch.Dashboard;
 
 namespace DriftWatch.Configuration;
 
@@ -22,7 +22,10 @@ internal static class DashboardSection
         var port = reader.Int("port", 1, 65_535) ?? defaults.Port;
         var token = reader.Text("access_token", secret: true);
         reader.Done();
-        var loopback = IsLoopback(bind, out var valid);
+        // Read once into an address (brackets, localhost and IPv4-mapped forms normalised); the config keeps
+        // its canonical text, so the dashboard binds exactly what was validated here.
+        var valid = DashboardBinding.TryParse(bind, out var address);
+        var loopback = valid && DashboardBinding.IsLoopback(address);
         if (!valid)
         {
             reader.Error("bind", $"must be an IP address (127.0.0.1, ::1, 0.0.0.0, ::) or localhost, was '{bind}'");
@@ -38,23 +41,6 @@ internal static class DashboardSection
             reader.Error("bind", $"'{bind}' is reachable from other machines; set dashboard.access_token (e.g. ${{DRIFTWATCH_DASHBOARD_TOKEN}}) or bind to 127.0.0.1");
         }
 
-        return new DashboardConfig { Enabled = enabled, Bind = bind, Port = port, AccessToken = token };
-    }
-
-    private static bool IsLoopback(string bind, out bool valid)
-    {
-        valid = true;
-        if (string.Equals(bind, "localhost", StringComparison.OrdinalIgnoreCase))
-        {
-            return true;
-        }
-
-        if (IPAddress.TryParse(bind, out var address))
-        {
-            return IPAddress.IsLoopback(address);
-        }
-
-        valid = false;
-        return false;
+        return new DashboardConfig { Enabled = enabled, Bind = valid ? address.ToString() : bind, Port = port, AccessToken = token };
     }
 }

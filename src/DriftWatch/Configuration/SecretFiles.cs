@@ -19,13 +19,13 @@ internal static class SecretFiles
                 return null;
             }
 
-            if (info.Length > MaxBytes)
+            if (BoundedFile.ReadText(path, MaxBytes) is not { } read)
             {
                 problem = $"'{path}' is larger than {MaxBytes} bytes; that is not a secret file";
                 return null;
             }
 
-            var text = File.ReadAllText(path).TrimEnd('\r', '\n');
+            var text = read.TrimEnd('\r', '\n');
             if (text.Length == 0)
             {
                 problem = $"'{path}' is empty";

@@ -40,11 +40,18 @@ internal static class DashboardEndpoints
         var health = services.GetRequiredService<HealthCheck>();
         var logger = services.GetRequiredService<ILoggerFactory>().CreateLogger("DriftWatch.Dashboard");
 
-        app.MapGet(DashboardAssets.CssPath, (HttpContext http) => Asset(http, DashboardAssets.Css, "text/css; charset=utf-8"));
-        app.MapGet(DashboardAssets.ScriptPath, (HttpContext http) => Asset(http, DashboardAssets.Script, "text/javascript; charset=utf-8"));
-        LoginEndpoints.Map(app, access, reader.Time);
+        // Every endpoint, assets and sign-in included, passes the Host check first when there is one.
+        var site = app.MapGroup(string.Empty);
+        if (access.Hosts is { } hosts)
+        {
+            site.AddEndpointFilter(new HostFilter(hosts));
+        }
 
-        var guarded = app.MapGroup(string.Empty).AddEndpointFilter(new AccessFilter(access));
+        site.MapGet(DashboardAssets.CssPath, (HttpContext http) => Asset(http, DashboardAssets.Css, "text/css; charset=utf-8"));
+        site.MapGet(DashboardAssets.ScriptPath, (HttpContext http) => Asset(http, DashboardAssets.Script, "text/javascript; charset=utf-8"));
+        LoginEndpoints.Map(site, access, reader.Time);
+
+        var guarded = site.MapGroup(string.Empty).AddEndpointFilter(new AccessFilter(access));
         guarded.MapGet("/", (HttpContext http, CancellationToken ct) => Page(http, logger, reader.Time, async () =>
         {
             var rows = await reader.GetOverviewAsync(ct);

@@ -1,4 +1,3 @@
-using System.Globalization;
 using System.Net;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Store;
@@ -12,7 +11,6 @@ using Microsoft.Extensions.Logging;
 namespace DriftWatch.Dashboard;
 
 /// <summary>What a standalone dashboard server reads and where it listens.</summary>
-/// <param name="Url">Overrides the address from <see cref="DriftWatchConfig.Dashboard"/>; tests pass "http://127.0.0.1:0".</param>
 internal sealed record DashboardServerOptions(
     DriftWatchConfig Config,
     IStoreDatabase Database,
@@ -23,7 +21,8 @@ internal sealed record DashboardServerOptions(
 
     public IWorkerHealth? WorkerHealth { get; init; }
 
-    public string? Url { get; init; }
+    /// <summary>Overrides the endpoint from <see cref="DriftWatchConfig.Dashboard"/>; tests pass 127.0.0.1 port 0.</summary>
+    public IPEndPoint? Listen { get; init; }
 
     /// <summary>Replaces the default console logging (tests collect log lines).</summary>
     public Action<ILoggingBuilder>? Logging { get; init; }
@@ -48,21 +47,12 @@ internal sealed class DashboardServer : IAsyncDisposable
 
     public IServiceProvider Services => _app.Services;
 
-    /// <summary>The URL Kestrel should listen on for <paramref name="config"/>: http://BIND:PORT, IPv6 in brackets.</summary>
-    public static string ListenUrl(DashboardConfig config)
-    {
-        ArgumentNullException.ThrowIfNull(config);
-        var host = IPAddress.TryParse(config.Bind, out var address) && address.AddressFamily == System.Net.Sockets.AddressFamily.InterNetworkV6
-            ? "[" + config.Bind + "]"
-            : config.Bind;
-        return "http://" + host + ":" + config.Port.ToString(CultureInfo.InvariantCulture);
-    }
-
     public static async Task<DashboardServer> StartAsync(DashboardServerOptions options, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(options);
         var builder = WebApplication.CreateSlimBuilder();
-        builder.WebHost.UseUrls(options.Url ?? ListenUrl(options.Config.Dashboard));
+        var endPoint = options.Listen ?? DashboardBinding.EndPoint(options.Config.Dashboard);
+        builder.WebHost.ConfigureKestrel(kestrel => kestrel.Listen(endPoint));
         if (options.Logging is { } logging)
         {
             builder.Logging.ClearProviders();

@@ -20,8 +20,10 @@ internal static class DashboardServices
     {
         ArgumentNullException.ThrowIfNull(services);
         ArgumentNullException.ThrowIfNull(config);
-        services.AddSingleton(new DashboardAccess(config));
+        // Refused here, before anything starts, rather than at the first request.
+        DashboardAccess.Validate(config);
         services.TryAddSingleton(TimeProvider.System);
+        services.AddSingleton(sp => new DashboardAccess(config, sp.GetRequiredService<TimeProvider>()));
         services.AddSingleton(sp => new DashboardReader(
             sp.GetRequiredService<DriftWatchConfig>(),
             sp.GetRequiredService<IHistoryStore>(),

@@ -23,15 +23,21 @@ internal static class DemoDashboard
                 Time = new DemoClock(run.LastCheck),
                 Logging = logging => logging.SetMinimumLevel(LogLevel.Warning).AddConsole(),
             };
+            var endPoint = DashboardBinding.EndPoint(run.Config.Dashboard);
+            if (DashboardBinding.Probe(endPoint) is { } problem)
+            {
+                throw new DemoException(problem);
+            }
+
             DashboardServer server;
             try
             {
                 server = await DashboardServer.StartAsync(options, cancellationToken);
             }
-            catch (IOException ex)
+            catch (Exception ex) when (DashboardBinding.Failure(endPoint, ex) is { } failure)
             {
-                // Kestrel reports a port in use as an IOException.
-                throw new DemoException($"cannot serve the dashboard on {DashboardServer.ListenUrl(run.Config.Dashboard)}: {ex.Message}", ex);
+                // Taken between the probe and the start.
+                throw new DemoException(failure, ex);
             }
 
             await using (server)

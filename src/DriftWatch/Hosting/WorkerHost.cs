@@ -1,3 +1,4 @@
+using System.Net;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Dashboard;
 using DriftWatch.Scheduling;
@@ -29,7 +30,9 @@ internal static class WorkerHost
         builder.Logging.ClearProviders();
         builder.Services.AddSerilog(logger, dispose: true);
         builder.Host.UseSystemd();
-        builder.Services.Configure<HostOptions>(o => o.ShutdownTimeout = SchedulingSetup.ShutdownGrace);
+        // The host waits for the checks' grace plus the time to record them; StopGrace cancels the checks.
+        builder.Services.Configure<HostOptions>(o => o.ShutdownTimeout = StopGrace.HostShutdownTimeout(config.Worker.StopGrace));
+        builder.Services.AddSingleton(sp => new StopGrace(config.Worker.StopGrace, sp.GetRequiredService<IHostApplicationLifetime>(), sp.GetRequiredService<ILogger<StopGrace>>()));
 
         var time = options.Time ?? TimeProvider.System;
         builder.Services.AddDriftWatch(config, time);
@@ -40,7 +43,7 @@ internal static class WorkerHost
         });
         builder.Services.AddQuartzHostedService(q =>
         {
-            // SIGTERM: running checks get the grace period to finish, then their tokens are cancelled.
+            // SIGTERM: running checks get the grace period to finish (StopGrace), then their tokens are cancelled.
             q.WaitForJobsToComplete = true;
         });
 
@@ -48,13 +51,12 @@ internal static class WorkerHost
         if (config.Dashboard.Enabled)
         {
             DashboardServices.Add(builder.Services, config.Dashboard);
-            builder.WebHost.UseUrls(options.Urls ?? DashboardServer.ListenUrl(config.Dashboard));
         }
-        else
-        {
-            // No dashboard: nothing listens beyond an ephemeral loopback port the host insists on.
-            builder.WebHost.UseUrls("http://127.0.0.1:0");
-        }
+
+        // An IPEndPoint, never a URL: the address is exactly the one the loader validated. Without a dashboard
+        // nothing listens beyond an ephemeral loopback port the host insists on.
+        var endPoint = options.DashboardEndPoint ?? ListenEndPoint(config);
+        builder.WebHost.ConfigureKestrel(kestrel => kestrel.Listen(endPoint));
 
         var app = builder.Build();
         if (config.Dashboard.Enabled)
@@ -64,6 +66,13 @@ internal static class WorkerHost
 
         return app;
     }
+
+    /// <summary>Where <c>run</c> listens: the dashboard's address and port, or an ephemeral loopback port without a dashboard.</summary>
+    public static IPEndPoint ListenEndPoint(DriftWatchConfig config)
+    {
+        ArgumentNullException.ThrowIfNull(config);
+        return config.Dashboard.Enabled ? DashboardBinding.EndPoint(config.Dashboard) : new IPEndPoint(IPAddress.Loopback, 0);
+    }
 }
 
 internal sealed record WorkerHostOptions
@@ -72,6 +81,6 @@ internal sealed record WorkerHostOptions
 
     public TimeSpan AlertEvery { get; init; } = WorkerHost.DefaultAlertEvery;
 
-    /// <summary>Overrides the dashboard's URL (tests bind to port 0).</summary>
-    public string? Urls { get; init; }
+    /// <summary>Overrides the dashboard's endpoint (tests bind to port 0).</summary>
+    public IPEndPoint? DashboardEndPoint { get; init; }
 }

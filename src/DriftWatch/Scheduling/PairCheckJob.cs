@@ -1,5 +1,7 @@
 using DriftWatch.Core.Configuration;
+using DriftWatch.Hosting;
 using DriftWatch.Monitoring;
+using Microsoft.Extensions.Logging;
 using Quartz;
 
 namespace DriftWatch.Scheduling;
@@ -9,7 +11,7 @@ namespace DriftWatch.Scheduling;
 /// and each pair has its own job, so a slow run of a pair delays that pair's next run instead of overlapping it.
 /// </summary>
 [DisallowConcurrentExecution]
-internal sealed class PairCheckJob(DriftWatchConfig config, PairChecker checker) : IJob
+internal sealed class PairCheckJob(DriftWatchConfig config, PairChecker checker, StopGrace stop, ILogger<PairCheckJob> logger) : IJob
 {
     public const string PairKey = "pair";
 
@@ -23,6 +25,9 @@ internal sealed class PairCheckJob(DriftWatchConfig config, PairChecker checker)
             return;
         }
 
-        await checker.CheckAsync(pair, cancellationToken);
+        // A stop request does not cancel the check at once: it goes on until the grace runs out.
+        using var linked = CancellationTokenSource.CreateLinkedTokenSource(cancellationToken, stop.Expired);
+        logger.LogDebug("Check of {Pair} started", pair.Name);
+        await checker.CheckAsync(pair, linked.Token);
     }
 }

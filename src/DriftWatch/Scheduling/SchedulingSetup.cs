@@ -5,9 +5,6 @@ namespace DriftWatch.Scheduling;
 
 internal static class SchedulingSetup
 {
-    /// <summary>How long a shutdown waits for running checks before their tokens are cancelled.</summary>
-    public static readonly TimeSpan ShutdownGrace = TimeSpan.FromSeconds(30);
-
     /// <summary>One job and one cron trigger per pair; an alert-evaluation job on its own interval.</summary>
     public static void AddPairSchedules(IQuartzBuilder quartz, DriftWatchConfig config, TimeSpan alertEvery)
     {

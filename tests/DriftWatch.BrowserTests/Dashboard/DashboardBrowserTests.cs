@@ -31,7 +31,7 @@ public sealed partial class DashboardBrowserTests : IAsyncLifetime
             new DashboardServerOptions(_scenario.Config, _scenario.Database, _scenario.History, _scenario.Alerts)
             {
                 Time = DashboardScenario.Clock,
-                Url = "http://127.0.0.1:0",
+                Listen = new System.Net.IPEndPoint(System.Net.IPAddress.Loopback, 0),
                 Logging = b => b.SetMinimumLevel(LogLevel.Warning),
             },
             CancellationToken.None);

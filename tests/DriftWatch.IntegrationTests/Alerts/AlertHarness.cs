@@ -6,6 +6,7 @@ using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Findings;
 using DriftWatch.Core.Profiling;
 using DriftWatch.Store;
+using Microsoft.Extensions.Logging;
 using Microsoft.Extensions.Logging.Abstractions;
 using Microsoft.Extensions.Time.Testing;
 
@@ -19,7 +20,7 @@ internal sealed class AlertHarness
 {
     public static readonly DateTimeOffset Start = new(2026, 3, 2, 8, 0, 0, TimeSpan.Zero);
 
-    public AlertHarness(IStoreDatabase database, AlertingConfig config, OutboxOptions? options = null)
+    public AlertHarness(IStoreDatabase database, AlertingConfig config, OutboxOptions? options = null, ILogger<OutboxDispatcher>? dispatcherLog = null)
     {
         Store = new AlertStore(database);
         Config = config;
@@ -32,7 +33,7 @@ internal sealed class AlertHarness
             Options,
             Time,
             new Random(7),
-            NullLogger<OutboxDispatcher>.Instance);
+            dispatcherLog ?? NullLogger<OutboxDispatcher>.Instance);
     }
 
     public FakeTimeProvider Time { get; } = new(Start);

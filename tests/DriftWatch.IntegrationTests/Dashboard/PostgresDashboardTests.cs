@@ -56,7 +56,7 @@ public sealed class PostgresDashboardTests(PostgresServer server) : IAsyncLifeti
         await using var dashboard = await DashboardServer.StartAsync(
             new DashboardServerOptions(config, store, history, alerts)
             {
-                Url = "http://127.0.0.1:0",
+                Listen = new System.Net.IPEndPoint(System.Net.IPAddress.Loopback, 0),
                 WorkerHealth = WorkerHealth.From(() => true),
                 Logging = b => b.SetMinimumLevel(LogLevel.Warning),
             },

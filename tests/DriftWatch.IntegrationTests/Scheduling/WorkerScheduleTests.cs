@@ -45,7 +45,7 @@ public sealed class WorkerScheduleTests(PostgresServer server) : IDisposable
         var loaded = ConfigLoader.Parse(yaml, "worker.yaml", name => name == "SOURCE_PG" ? db.ConnectionString : null, _store.Folder);
         Assert.True(loaded.Ok, string.Join("\n", loaded.Errors));
 
-        await using var app = WorkerHost.Build(loaded.Config!, new WorkerHostOptions { Urls = "http://127.0.0.1:0" });
+        await using var app = WorkerHost.Build(loaded.Config!, new WorkerHostOptions { DashboardEndPoint = new System.Net.IPEndPoint(System.Net.IPAddress.Loopback, 0) });
         await app.StartAsync();
         var history = app.Services.GetRequiredService<IHistoryStore>();
         for (var i = 0; i < 200 && await history.CountRunsAsync("km-vs-litres", CancellationToken.None) < 3; i++)

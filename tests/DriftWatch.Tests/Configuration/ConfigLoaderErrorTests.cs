@@ -164,15 +164,40 @@ public sealed class ConfigLoaderErrorTests
         Assert.Equal(["test.yaml:12:9: dashboard.bind: '0.0.0.0' is reachable from other machines; set dashboard.access_token (e.g. ${DRIFTWATCH_DASHBOARD_TOKEN}) or bind to 127.0.0.1"], errors);
     }
 
+    // Loopback is 127.0.0.0/8 and ::1 (RFC 1122 section 3.2.1.3, RFC 4291 section 2.5.3); ::ffff:a.b.c.d is the
+    // IPv4-mapped form of a.b.c.d (RFC 4291 section 2.5.5.2). The loader keeps the one canonical address it read.
     [Theory]
-    [InlineData("127.0.0.1")]
-    [InlineData("::1")]
-    [InlineData("localhost")]
-    public void Parse_LoopbackBindWithoutToken_IsFine(string bind)
+    [InlineData("127.0.0.1", "127.0.0.1")]
+    [InlineData("127.0.0.2", "127.0.0.2")]
+    [InlineData("::1", "::1")]
+    [InlineData("[::1]", "::1")]
+    [InlineData("localhost", "127.0.0.1")]
+    [InlineData("::ffff:127.0.0.1", "127.0.0.1")]
+    public void Parse_LoopbackBindWithoutToken_IsFineAndNormalised(string bind, string normalised)
     {
         var result = ConfigText.Parse(OnePair + $"dashboard:\n  bind: \"{bind}\"\n");
         Assert.True(result.Ok, string.Join("\n", ConfigText.Lines(result)));
-        Assert.Equal(bind, result.Config!.Dashboard.Bind);
+        Assert.Equal(normalised, result.Config!.Dashboard.Bind);
+    }
+
+    [Theory]
+    [InlineData("[::]")]
+    [InlineData("::ffff:0.0.0.0")]
+    [InlineData("::ffff:192.168.1.20")]
+    public void Parse_NonLoopbackBindInAnyWritingWithoutToken_IsAnError(string bind)
+    {
+        var errors = Errors(OnePair + $"dashboard:\n  bind: \"{bind}\"\n");
+        Assert.Equal([$"test.yaml:12:9: dashboard.bind: '{bind}' is reachable from other machines; set dashboard.access_token (e.g. ${{DRIFTWATCH_DASHBOARD_TOKEN}}) or bind to 127.0.0.1"], errors);
+    }
+
+    [Theory]
+    [InlineData("[127.0.0.1]")]
+    [InlineData("[[::1]]")]
+    [InlineData("dashboard.internal")]
+    public void Parse_BindThatIsNoAddress_IsAnError(string bind)
+    {
+        var errors = Errors(OnePair + $"dashboard:\n  bind: \"{bind}\"\n");
+        Assert.Equal([$"test.yaml:12:9: dashboard.bind: must be an IP address (127.0.0.1, ::1, 0.0.0.0, ::) or localhost, was '{bind}'"], errors);
     }
 
     [Fact]

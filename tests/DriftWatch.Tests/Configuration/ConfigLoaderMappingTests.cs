@@ -67,6 +67,7 @@ public sealed class ConfigLoaderMappingTests : IDisposable
         Assert.Equal(LogFormat.Json, config.Logging.Format);
         Assert.Equal(Path.Combine(_dir.Path, "logs", "dw.log"), config.Logging.File);
         Assert.Equal("Debug", config.Logging.MinimumLevel);
+        Assert.Equal(TimeSpan.FromSeconds(45), config.Worker.StopGrace);
     }
 
     [Fact]

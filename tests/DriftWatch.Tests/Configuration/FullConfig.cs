@@ -120,5 +120,7 @@ internal static class FullConfig
           format: json
           file: logs/dw.log
           level: debug
+        worker:
+          stop_grace: 45s
         """;
 }

@@ -90,22 +90,6 @@ public sealed class YamlGuardTests
     }
 
     [Fact]
-    public void Load_FileOverTheSizeCap_IsRefusedWithoutReadingIt()
-    {
-        var path = Path.Combine(Path.GetTempPath(), "driftwatch-big-" + Guid.NewGuid().ToString("N") + ".yaml");
-        try
-        {
-            File.WriteAllText(path, "# " + new string('x', ConfigLoader.MaxFileBytes) + "\n");
-            var error = ConfigText.Single(ConfigLoader.Load(path, _ => null));
-            Assert.Equal($"the file is {ConfigLoader.MaxFileBytes + 3} bytes; a configuration may have at most {ConfigLoader.MaxFileBytes}", error.Message);
-        }
-        finally
-        {
-            File.Delete(path);
-        }
-    }
-
-    [Fact]
     public void Parse_TwoDocuments_IsRefused()
     {
         var error = ConfigText.Single(ConfigText.Parse("store: {}\n---\nstore: {}\n"));

@@ -35,7 +35,7 @@ internal sealed class DashboardHost : IAsyncDisposable
     {
         var logs = new LogLines();
         var server = await DashboardServer.StartAsync(
-            options with { Url = "http://127.0.0.1:0", Logging = b => b.AddProvider(logs) },
+            options with { Listen = new System.Net.IPEndPoint(System.Net.IPAddress.Loopback, 0), Logging = b => b.AddProvider(logs) },
             CancellationToken.None);
         // Redirects are asserted, not followed.
         var client = new HttpClient(new HttpClientHandler { AllowAutoRedirect = false, UseCookies = false }) { BaseAddress = server.Address };

@@ -1,4 +1,3 @@
-using System.Net;
 using System.Security.Cryptography;
 using System.Text;
 using DriftWatch.Core.Configuration;
@@ -7,46 +6,62 @@ using Microsoft.AspNetCore.Http;
 namespace DriftWatch.Dashboard.Access;
 
 /// <summary>
-/// Who may read the dashboard. On a loopback address without a token: anyone on this machine. Bound anywhere
-/// else a token is mandatory (refused at start-up without one), and with a token every request must carry it
-/// as <c>Authorization: Bearer &lt;token&gt;</c> or hold the session cookie the login form sets. The cookie holds
-/// an HMAC of the token, not the token itself, and comparisons take constant time.
+/// Who may read the dashboard. On a loopback address without a token: anyone on this machine, through a host
+/// name of <see cref="HostAllowList"/>. Bound anywhere else a token is mandatory (refused at start-up without
+/// one), and with a token every request must carry it as <c>Authorization: Bearer &lt;token&gt;</c> or hold the
+/// cookie of a live session (<see cref="DashboardSessions"/>) the sign-in form started. Token comparisons take
+/// constant time; failed sign-ins are limited per client (<see cref="LoginThrottle"/>).
 /// </summary>
 internal sealed class DashboardAccess
 {
     public const string CookieName = "driftwatch_session";
 
-    private readonly byte[]? _token;
-    private readonly string? _session;
+    private readonly byte[]? _tokenHash;
 
-    public DashboardAccess(DashboardConfig config)
+    public DashboardAccess(DashboardConfig config, TimeProvider? time = null)
     {
-        ArgumentNullException.ThrowIfNull(config);
-        Loopback = IsLoopback(config.Bind);
-        if (!Loopback && string.IsNullOrEmpty(config.AccessToken))
-        {
-            throw new InvalidOperationException(
-                $"dashboard.bind '{config.Bind}' is reachable from other machines; set dashboard.access_token or bind to 127.0.0.1.");
-        }
+        Validate(config);
+        var bind = DashboardBinding.Parse(config.Bind);
+        Loopback = DashboardBinding.IsLoopback(bind);
 
         if (!string.IsNullOrEmpty(config.AccessToken))
         {
-            _token = Encoding.UTF8.GetBytes(config.AccessToken);
-            _session = Convert.ToHexStringLower(HMACSHA256.HashData(_token, "driftwatch dashboard session v1"u8));
+            _tokenHash = SHA256.HashData(Encoding.UTF8.GetBytes(config.AccessToken));
         }
+
+        time ??= TimeProvider.System;
+        Sessions = new DashboardSessions(time);
+        Throttle = new LoginThrottle(time);
+        // Without a token, the Host header is the only thing between a rebinding page and the data.
+        Hosts = Loopback && _tokenHash is null ? new HostAllowList(bind) : null;
     }
 
     public bool Loopback { get; }
 
-    public bool TokenRequired => _token is not null;
+    /// <summary>Throws when the configuration binds beyond loopback without an access token.</summary>
+    public static void Validate(DashboardConfig config)
+    {
+        ArgumentNullException.ThrowIfNull(config);
+        if (!DashboardBinding.IsLoopback(DashboardBinding.Parse(config.Bind)) && string.IsNullOrEmpty(config.AccessToken))
+        {
+            throw new InvalidOperationException(
+                $"dashboard.bind '{config.Bind}' is reachable from other machines; set dashboard.access_token or bind to 127.0.0.1.");
+        }
+    }
 
-    /// <summary>The cookie value that proves a past sign-in; null when no token is configured.</summary>
-    public string? SessionValue => _session;
+    public bool TokenRequired => _tokenHash is not null;
+
+    public DashboardSessions Sessions { get; }
+
+    public LoginThrottle Throttle { get; }
+
+    /// <summary>The names requests must carry in Host; null when any name is accepted (a token guards the dashboard).</summary>
+    public HostAllowList? Hosts { get; }
 
     public bool IsAuthorized(HttpRequest request)
     {
         ArgumentNullException.ThrowIfNull(request);
-        if (_token is null)
+        if (_tokenHash is null)
         {
             return true;
         }
@@ -57,25 +72,15 @@ internal sealed class DashboardAccess
             return true;
         }
 
-        return request.Cookies.TryGetValue(CookieName, out var cookie) && FixedTimeEquals(cookie, _session!);
+        return request.Cookies.TryGetValue(CookieName, out var cookie) && Sessions.IsActive(cookie);
     }
 
     // Hashing first makes the comparison constant-time in the length too: a wrong guess learns nothing, not even the token's length.
     public bool CheckToken(string? candidate) =>
-        _token is not null && candidate is not null &&
-        CryptographicOperations.FixedTimeEquals(SHA256.HashData(Encoding.UTF8.GetBytes(candidate)), SHA256.HashData(_token));
+        _tokenHash is not null && candidate is not null &&
+        CryptographicOperations.FixedTimeEquals(SHA256.HashData(Encoding.UTF8.GetBytes(candidate)), _tokenHash);
 
-    /// <summary>"localhost", 127.0.0.0/8 and ::1 are loopback; anything else (0.0.0.0, a LAN address, a host name) is not.</summary>
-    public static bool IsLoopback(string bind)
-    {
-        if (string.Equals(bind, "localhost", StringComparison.OrdinalIgnoreCase))
-        {
-            return true;
-        }
-
-        return IPAddress.TryParse(bind.Trim('[', ']'), out var address) && IPAddress.IsLoopback(address);
-    }
-
-    private static bool FixedTimeEquals(string a, string b) =>
-        CryptographicOperations.FixedTimeEquals(Encoding.UTF8.GetBytes(a), Encoding.UTF8.GetBytes(b));
+    /// <summary>"localhost", 127.0.0.0/8, ::1 and their bracketed or IPv4-mapped forms are loopback; anything else (0.0.0.0, a LAN address, a host name) is not.</summary>
+    public static bool IsLoopback(string bind) =>
+        DashboardBinding.TryParse(bind, out var address) && DashboardBinding.IsLoopback(address);
 }
