@@ -33,6 +33,10 @@ internal static class DemoFolder
 
             if (File.Exists(Path.Combine(full, MarkerFile)))
             {
+                // A previous demo in this process (a test, --serve) may still pool connections to the store file
+                // deleted here; one of them handed to the next run would see the old, unlinked file while new
+                // connections see the new, empty one ("no such table").
+                Microsoft.Data.Sqlite.SqliteConnection.ClearAllPools();
                 Directory.Delete(full, recursive: true);
             }
             else if (Directory.EnumerateFileSystemEntries(full).Any())
