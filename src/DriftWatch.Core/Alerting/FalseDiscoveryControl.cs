@@ -59,10 +59,14 @@ public static class FalseDiscoveryControl
     }
 
     /// <summary>
-    /// Applies the step once over every p-value finding of one cycle (all pairs together); a null
-    /// <paramref name="q"/> turns it off. Findings without a p-value and failed outcomes pass untouched.
+    /// Applies the step once over the findings of one cycle (all pairs together) that could start an alert: those
+    /// at warning or worse with a p-value, whose (pair, kind) has no open alert yet. Info findings never alert, so
+    /// they are not tests here; a finding that continues an open alert is judged by its own run's test and passes
+    /// (dropping it would read as "gone" and clear an alert that is still there). A null <paramref name="q"/> turns
+    /// the step off. Findings without a p-value and failed outcomes pass untouched.
     /// </summary>
-    public static IReadOnlyList<PairOutcome> FilterCycle(IReadOnlyList<PairOutcome> outcomes, double? q)
+    public static IReadOnlyList<PairOutcome> FilterCycle(
+        IReadOnlyList<PairOutcome> outcomes, double? q, IReadOnlyCollection<(string Pair, FindingKind Kind)>? open = null)
     {
         ArgumentNullException.ThrowIfNull(outcomes);
         if (q is null)
@@ -70,10 +74,11 @@ public static class FalseDiscoveryControl
             return outcomes;
         }
 
+        var continuing = open is null ? [] : new HashSet<(string Pair, FindingKind Kind)>(open);
         var all = outcomes
-            .SelectMany((o, i) => o.Findings.Select(f => (Outcome: i, Finding: f)))
+            .SelectMany((o, i) => o.Findings.Select(f => (Outcome: i, Finding: f, Tested: f.Severity >= Severity.Warning && !continuing.Contains((o.Pair, f.Kind)))))
             .ToArray();
-        var kept = BenjaminiHochberg(all, t => t.Finding.PValue, q.Value);
+        var kept = BenjaminiHochberg(all, t => t.Tested ? t.Finding.PValue : null, q.Value);
         var keptByOutcome = kept.ToLookup(t => t.Outcome, t => t.Finding);
         return [.. outcomes.Select((o, i) => o with { Findings = [.. keptByOutcome[i]] })];
     }

@@ -28,11 +28,11 @@ internal sealed class AlertCycleProcessor(
         ArgumentNullException.ThrowIfNull(outcomes);
         ArgumentNullException.ThrowIfNull(contexts);
         var now = time.GetUtcNow();
-        var filtered = FalseDiscoveryControl.FilterCycle(outcomes, config.FdrQ);
-        LogDropped(outcomes, filtered);
-
         var pairs = outcomes.Select(o => o.Pair).Distinct(StringComparer.Ordinal).ToArray();
         var open = await store.GetOpenAlertsAsync(pairs, cancellationToken);
+        var filtered = FalseDiscoveryControl.FilterCycle(outcomes, config.FdrQ, [.. open.Where(a => a.IsOpen).Select(a => (a.Pair, a.Kind))]);
+        LogDropped(outcomes, filtered);
+
         var snoozes = await store.GetActiveSnoozesAsync(now, cancellationToken);
         var decision = AlertLifecycle.Evaluate(filtered, open, snoozes, config, now);
 

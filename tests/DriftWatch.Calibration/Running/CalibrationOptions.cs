@@ -18,6 +18,9 @@ internal sealed record CalibrationOptions(
     string? JsonPath,
     bool Quick)
 {
+    /// <summary>Leave the run's folder (source, store, configuration) in place and print its path, to look at with <c>driftwatch history</c>.</summary>
+    public bool Keep { get; init; }
+
     public const int DefaultPairsPerFamily = 10;
     public const int DefaultDays = 25;
     public const int DefaultBaselineDays = 5;
@@ -76,9 +79,10 @@ internal sealed record CalibrationOptions(
         var postgres = new Option<bool>("--postgres") { Description = $"Load the source data into a new PostgreSQL database on the server of {PostgresVariable} instead of a SQLite file." };
         var json = new Option<string?>("--json") { Description = "Also write the results as JSON to this file." };
         var quick = new Option<bool>("--quick") { Description = "The small preset: few pairs, each fault type at its main size, fewer days." };
+        var keep = new Option<bool>("--keep") { Description = "Keep the run's folder (SQLite source and store, driftwatch.yaml) and print its path, to inspect runs with 'driftwatch history PAIR --config …'." };
         var command = new RootCommand("Calibration: healthy pair families and injected faults, day by day through the production check path; false findings, confirmed alerts and detection read back from the store.")
         {
-            pairs, days, baseline, faultDay, seed, postgres, json, quick,
+            pairs, days, baseline, faultDay, seed, postgres, json, quick, keep,
         };
         command.SetAction((parse, ct) =>
         {
@@ -103,7 +107,10 @@ internal sealed record CalibrationOptions(
                     parse.GetValue(seed),
                     pg,
                     parse.GetValue(json),
-                    q),
+                    q)
+                {
+                    Keep = parse.GetValue(keep),
+                },
                 ct);
         });
         return command;

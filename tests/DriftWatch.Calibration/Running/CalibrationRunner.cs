@@ -99,7 +99,14 @@ internal sealed class CalibrationRunner(TextWriter progress)
         finally
         {
             Microsoft.Data.Sqlite.SqliteConnection.ClearAllPools();
-            folder.Delete(recursive: true);
+            if (options.Keep)
+            {
+                await Console.Error.WriteLineAsync($"kept: {folder.FullName}");
+            }
+            else
+            {
+                folder.Delete(recursive: true);
+            }
         }
     }
 

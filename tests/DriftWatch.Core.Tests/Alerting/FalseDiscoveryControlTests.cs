@@ -81,6 +81,30 @@ public sealed class FalseDiscoveryControlTests
     }
 
     [Fact]
+    public void FilterCycle_InfoFindingsAndOpenAlerts_AreNotTestsAndPassUntouched()
+    {
+        // The paper's 15 p-values as new warnings of three pairs (as above: four survive at q = 0.05), plus an
+        // info finding with p = 0.9 and a warning with p = 0.04 that continues pair0's open alert of its kind.
+        var outcomes = Enumerable.Range(0, 3)
+            .Select(pair => PairOutcome.Success(
+                $"pair{pair}",
+                pair,
+                [.. PaperPValues.Where((_, i) => i % 3 == pair).Select(p => Finding(p))]))
+            .ToArray();
+        outcomes[0] = outcomes[0] with
+        {
+            Findings = [.. outcomes[0].Findings, new Finding(FindingKind.MarginalShift, Severity.Info, 0.9, 0.1, "info"), new Finding(FindingKind.OffsetShift, Severity.Warning, 0.04, 0.6, "open")],
+        };
+
+        var filtered = FalseDiscoveryControl.FilterCycle(outcomes, 0.05, [("pair0", FindingKind.OffsetShift)]);
+
+        var kept = filtered.SelectMany(o => o.Findings).ToArray();
+        Assert.Equal([0.0001, 0.0004, 0.0019, 0.0095], kept.Where(f => f.Kind == FindingKind.CorrelationShift).Select(f => f.PValue!.Value).Order());
+        Assert.Single(kept, f => f.Kind == FindingKind.MarginalShift);
+        Assert.Single(kept, f => f.Kind == FindingKind.OffsetShift);
+    }
+
+    [Fact]
     public void FilterCycle_QNull_ReturnsOutcomesUnchanged()
     {
         PairOutcome[] outcomes = [PairOutcome.Success("p", 1, [Finding(0.9)])];
