@@ -67,7 +67,7 @@ internal static class PairsSection
         var window = ReadWindow(reader.Mapping("window", ConfigKeys.Window));
         var sample = SampleSection.Read(reader.Mapping("sample", ConfigKeys.Sample), defaults.Sample);
         var schedule = ScheduleKey.Read(reader) ?? defaults.Schedule;
-        var declared = ReadDeclared(reader.Mapping("expect", ConfigKeys.Expect));
+        var declared = ReadDeclared(reader.Mapping("declared", ConfigKeys.Declared));
         var thresholds = ThresholdsSection.Read(reader.Mapping("thresholds", ConfigKeys.Thresholds), defaults.Thresholds);
         var baseline = BaselineSection.Read(reader.Mapping("baseline", ConfigKeys.Baseline)) ?? defaults.Baseline;
         var notify = ReadNotify(reader, lists);
