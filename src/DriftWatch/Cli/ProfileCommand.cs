@@ -33,9 +33,9 @@ internal static class ProfileCommand
         var baselineX = new Option<string?>("--baseline-x") { Description = "Column of the baseline extract that holds x, if not named as --x.", HelpName = "COLUMN" };
         var baselineY = new Option<string?>("--baseline-y") { Description = "Column of the baseline extract that holds y, if not named as --y.", HelpName = "COLUMN" };
         var format = CommonOptions.Format();
-        var declaredExact = new Option<bool>("--expect-exact")
+        var declaredExact = new Option<bool>("--declared-exact")
         {
-            Description = "y is meant to be an exact function of x (a derived column): exactness is then healthy and losing it is the finding.",
+            Description = "Declare the pair exact, as declared: {exact: true} does in a config file: y is meant to be an exact function of x (a derived column), so exactness is healthy and losing it is the finding.",
         };
         var alpha = CommonOptions.Number(
             "--alpha",
