@@ -31,7 +31,8 @@ public sealed record PairConfig
     /// <summary>Quartz cron expression (seconds first).</summary>
     public string Schedule { get; init; } = DefaultSchedule;
 
-    public PairExpectation Expect { get; init; } = PairExpectation.Default;
+    /// <summary>What the owner declares about the pair (<c>declared:</c>); nothing by default.</summary>
+    public PairDeclaration Declared { get; init; } = PairDeclaration.None;
 
     public Thresholds Thresholds { get; init; } = Thresholds.Default;
 

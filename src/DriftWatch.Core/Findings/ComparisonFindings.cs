@@ -16,14 +16,14 @@ namespace DriftWatch.Core.Findings;
 internal static class ComparisonFindings
 {
     public static List<Finding> Of(
-        RelationshipProfile cur, RunFigures now, PairedSample curSample, BaselineView bas, PairExpectation expect, Thresholds t, ColumnNames c)
+        RelationshipProfile cur, RunFigures now, PairedSample curSample, BaselineView bas, PairDeclaration declared, Thresholds t, ColumnNames c)
     {
         var findings = new List<Finding>();
         bool bothDefined = cur.Shape != Shape.Undefined && bas.Pooled.Shape != Shape.Undefined;
         if (bothDefined)
         {
-            BecamePerfect(cur, bas, expect, c, findings);
-            PartlyDerived(cur, bas, expect, t, c, findings);
+            BecamePerfect(cur, bas, declared, c, findings);
+            PartlyDerived(cur, bas, declared, t, c, findings);
             if (!bas.Mostly(r => r.IsExactFunction) && !(cur.ExactAffine || cur.ExactMonotone))
             {
                 Correlations(cur, now, bas, t, c, findings);
@@ -37,11 +37,11 @@ internal static class ComparisonFindings
         return findings;
     }
 
-    private static void BecamePerfect(RelationshipProfile cur, BaselineView bas, PairExpectation expect, ColumnNames c, List<Finding> findings)
+    private static void BecamePerfect(RelationshipProfile cur, BaselineView bas, PairDeclaration declared, ColumnNames c, List<Finding> findings)
     {
         bool nowExact = cur.ExactAffine || cur.ExactMonotone;
         bool wasExact = bas.Mostly(r => r.IsExactFunction) || bas.Pooled.ExactAffine || bas.Pooled.ExactMonotone;
-        if (expect.Exact || !nowExact || wasExact)
+        if (declared.Exact || !nowExact || wasExact)
         {
             return;
         }
@@ -62,9 +62,9 @@ internal static class ComparisonFindings
     /// A share of rows now lies exactly on one line, which the baseline's runs did not show: part of the rows is
     /// copied or derived from the other column. Critical, like <see cref="FindingKind.BecamePerfect"/>.
     /// </summary>
-    private static void PartlyDerived(RelationshipProfile cur, BaselineView bas, PairExpectation expect, Thresholds t, ColumnNames c, List<Finding> findings)
+    private static void PartlyDerived(RelationshipProfile cur, BaselineView bas, PairDeclaration declared, Thresholds t, ColumnNames c, List<Finding> findings)
     {
-        if (expect.Exact || cur.ExactAffine || cur.ExactMonotone || cur.DerivedShare is not { } share)
+        if (declared.Exact || cur.ExactAffine || cur.ExactMonotone || cur.DerivedShare is not { } share)
         {
             return;
         }

@@ -15,25 +15,25 @@ public static class FindingEngine
     /// r has the sign opposite to the declared direction.
     /// </summary>
     public static IReadOnlyList<Finding> ForProfile(
-        RelationshipProfile profile, PairExpectation expect, Thresholds t, string xName = "x", string yName = "y")
+        RelationshipProfile profile, PairDeclaration declared, Thresholds t, string xName = "x", string yName = "y")
     {
         ArgumentNullException.ThrowIfNull(profile);
-        ArgumentNullException.ThrowIfNull(expect);
+        ArgumentNullException.ThrowIfNull(declared);
         ArgumentNullException.ThrowIfNull(t);
-        return ProfileFindings.Of(profile, expect, t, ColumnNames.Of(xName, yName));
+        return ProfileFindings.Of(profile, declared, t, ColumnNames.Of(xName, yName));
     }
 
     /// <summary>
     /// Comparison findings of the current profile against a baseline given by its pooled profile alone (one run:
     /// classic two-sample tests); the samples are the point sets the Kolmogorov–Smirnov tests use. Rules are
-    /// independent here; see <see cref="Assess(RelationshipProfile, PairedSample, SourceFigures?, StoredBaseline?, PairExpectation, Thresholds, string, string)"/>.
+    /// independent here; see <see cref="Assess(RelationshipProfile, PairedSample, SourceFigures?, StoredBaseline?, PairDeclaration, Thresholds, string, string)"/>.
     /// </summary>
     public static IReadOnlyList<Finding> Compare(
         RelationshipProfile current,
         PairedSample currentSample,
         RelationshipProfile baseline,
         PairedSample baselineSample,
-        PairExpectation expect,
+        PairDeclaration declared,
         Thresholds t,
         string xName = "x",
         string yName = "y")
@@ -42,14 +42,14 @@ public static class FindingEngine
         ArgumentNullException.ThrowIfNull(currentSample);
         ArgumentNullException.ThrowIfNull(baseline);
         ArgumentNullException.ThrowIfNull(baselineSample);
-        ArgumentNullException.ThrowIfNull(expect);
+        ArgumentNullException.ThrowIfNull(declared);
         ArgumentNullException.ThrowIfNull(t);
         var now = RunFigures.Of(0, default, current, null, t);
-        return ComparisonFindings.Of(current, now, currentSample, BaselineView.Of(baseline, baselineSample, null, t, compareRowCounts: false), expect, t, ColumnNames.Of(xName, yName));
+        return ComparisonFindings.Of(current, now, currentSample, BaselineView.Of(baseline, baselineSample, null, t, compareRowCounts: false), declared, t, ColumnNames.Of(xName, yName));
     }
 
     /// <summary>
-    /// <see cref="Assess(RelationshipProfile, PairedSample, SourceFigures?, StoredBaseline?, PairExpectation, Thresholds, string, string)"/>
+    /// <see cref="Assess(RelationshipProfile, PairedSample, SourceFigures?, StoredBaseline?, PairDeclaration, Thresholds, string, string)"/>
     /// for a baseline known only by its pooled profile and points (two extracts compared by <c>profile</c>): the
     /// baseline stands as one run, with no spread between runs, and the extracts' lengths are not compared.
     /// </summary>
@@ -58,14 +58,14 @@ public static class FindingEngine
         PairedSample currentSample,
         RelationshipProfile? baseline,
         PairedSample? baselineSample,
-        PairExpectation expect,
+        PairDeclaration declared,
         Thresholds t,
         string xName = "x",
         string yName = "y")
     {
         ArgumentNullException.ThrowIfNull(t);
         var view = baseline is null ? null : BaselineView.Of(baseline, baselineSample ?? PairedSample.Empty, null, t, compareRowCounts: false);
-        return Assess(current, currentSample, null, view, expect, t, xName, yName, default, []);
+        return Assess(current, currentSample, null, view, declared, t, xName, yName, default, []);
     }
 
     /// <summary>
@@ -81,7 +81,7 @@ public static class FindingEngine
         PairedSample currentSample,
         SourceFigures? exact,
         StoredBaseline? baseline,
-        PairExpectation expect,
+        PairDeclaration declared,
         Thresholds t,
         string xName = "x",
         string yName = "y",
@@ -90,7 +90,7 @@ public static class FindingEngine
     {
         ArgumentNullException.ThrowIfNull(t);
         var view = baseline is null ? null : BaselineView.Of(baseline.Profile, baseline.Points, baseline.Runs, t);
-        return Assess(current, currentSample, exact, view, expect, t, xName, yName, at, previous ?? []);
+        return Assess(current, currentSample, exact, view, declared, t, xName, yName, at, previous ?? []);
     }
 
     private static IReadOnlyList<Finding> Assess(
@@ -98,7 +98,7 @@ public static class FindingEngine
         PairedSample currentSample,
         SourceFigures? exact,
         BaselineView? baseline,
-        PairExpectation expect,
+        PairDeclaration declared,
         Thresholds t,
         string xName,
         string yName,
@@ -107,10 +107,10 @@ public static class FindingEngine
     {
         ArgumentNullException.ThrowIfNull(current);
         ArgumentNullException.ThrowIfNull(currentSample);
-        ArgumentNullException.ThrowIfNull(expect);
+        ArgumentNullException.ThrowIfNull(declared);
         var names = ColumnNames.Of(xName, yName);
         bool baselineExact = baseline is not null && baseline.Mostly(r => r.IsExactFunction);
-        var own = ProfileFindings.Of(current, expect, t, names, baselineExact);
+        var own = ProfileFindings.Of(current, declared, t, names, baselineExact);
         if (current.Shape != Shape.Undefined
             && HiddenRowsFinding.Of(current, exact, baseline is not null && baseline.Ever(r => r.LineDisagrees), t, names) is { } hidden)
         {
@@ -119,11 +119,11 @@ public static class FindingEngine
 
         var comparison = baseline is null
             ? []
-            : ComparisonFindings.Of(current, RunFigures.Of(0, at, current, exact, t), currentSample, baseline, expect, t, names);
+            : ComparisonFindings.Of(current, RunFigures.Of(0, at, current, exact, t), currentSample, baseline, declared, t, names);
         if (baseline is not null && previous.Any(p => p.Severity >= Severity.Warning))
         {
             var relaxedThresholds = Confirmation.Relaxed(t);
-            var relaxed = ComparisonFindings.Of(current, RunFigures.Of(0, at, current, exact, relaxedThresholds), currentSample, baseline, expect, relaxedThresholds, names);
+            var relaxed = ComparisonFindings.Of(current, RunFigures.Of(0, at, current, exact, relaxedThresholds), currentSample, baseline, declared, relaxedThresholds, names);
             comparison.AddRange(Confirmation.Of(comparison, relaxed, previous));
         }
 

@@ -9,7 +9,7 @@ public enum FindingKind
     Outliers,
     SinglePointLeverage,
 
-    // A pair declared exact (expect.exact) that stopped being exact.
+    // A pair declared exact (declared.exact) that stopped being exact.
     ExactnessLost,
 
     // Current profile against the baseline.

@@ -7,13 +7,13 @@ namespace DriftWatch.Core.Findings;
 /// <summary>
 /// What one profile says on its own. Outliers, curvature and a dominant row are properties of a pair, reported
 /// as info (the change kinds against the baseline are what alert); an exact function is the data smell the tool
-/// exists for, a warning until the baseline shows it was always so. Declared expectations (exactness, direction)
-/// are checked on every run.
+/// exists for, a warning until the baseline shows it was always so. What the owner declares (exactness, direction)
+/// is checked on every run.
 /// </summary>
 internal static class ProfileFindings
 {
     /// <param name="baselineExact">The pair's baseline was already an exact function: a known state, reported as info.</param>
-    public static List<Finding> Of(RelationshipProfile p, PairExpectation expect, Thresholds t, ColumnNames c, bool baselineExact = false)
+    public static List<Finding> Of(RelationshipProfile p, PairDeclaration declared, Thresholds t, ColumnNames c, bool baselineExact = false)
     {
         var findings = new List<Finding>();
         if (p.Shape == Shape.Undefined)
@@ -22,7 +22,7 @@ internal static class ProfileFindings
         }
 
         bool exact = p.ExactAffine || p.ExactMonotone;
-        if (expect.Exact && !exact)
+        if (declared.Exact && !exact)
         {
             findings.Add(new Finding(
                 FindingKind.ExactnessLost,
@@ -31,12 +31,12 @@ internal static class ProfileFindings
                 1 - (p.RSquared ?? 0),
                 $"{c.Y} is no longer an exact function of {c.X} as declared (R² = {Numbers.Sig(p.RSquared, 6)}, residual SD {Numbers.Sig(p.ResidualSd)}): check the job or formula that derives {c.Y} from {c.X}."));
         }
-        else if (!expect.Exact && exact)
+        else if (!declared.Exact && exact)
         {
             findings.Add(Perfect(p, c, baselineExact ? Severity.Info : Severity.Warning));
         }
 
-        if (Direction(p, expect, t, c) is { } direction)
+        if (Direction(p, declared, t, c) is { } direction)
         {
             findings.Add(direction);
         }
@@ -92,26 +92,26 @@ internal static class ProfileFindings
         return new Finding(FindingKind.PerfectRelationship, severity, null, p.ExactAffine ? p.PearsonR : p.SpearmanRho, message);
     }
 
-    private static Finding? Direction(RelationshipProfile p, PairExpectation expect, Thresholds t, ColumnNames c)
+    private static Finding? Direction(RelationshipProfile p, PairDeclaration declared, Thresholds t, ColumnNames c)
     {
-        if (expect.Direction == ExpectedDirection.Any || p.PearsonR is not { } r || !(p.PearsonP < t.Alpha))
+        if (declared.Direction == DeclaredDirection.Any || p.PearsonR is not { } r || !(p.PearsonP < t.Alpha))
         {
             return null;
         }
 
-        bool wrong = expect.Direction == ExpectedDirection.Positive ? r < 0 : r > 0;
+        bool wrong = declared.Direction == DeclaredDirection.Positive ? r < 0 : r > 0;
         if (!wrong)
         {
             return null;
         }
 
         string actual = r < 0 ? "falls" : "rises";
-        string expected = expect.Direction == ExpectedDirection.Positive ? "positive" : "negative";
+        string claimed = declared.Direction == DeclaredDirection.Positive ? "positive" : "negative";
         return new Finding(
             FindingKind.SignFlip,
             Severity.Critical,
             p.PearsonP,
             r,
-            $"{c.Y} {actual} as {c.X} rises (r = {Numbers.Sig(r)}, {Numbers.P(p.PearsonP)}), but the pair is declared {expected}: look for a sign, direction or column swap upstream.");
+            $"{c.Y} {actual} as {c.X} rises (r = {Numbers.Sig(r)}, {Numbers.P(p.PearsonP)}), but the pair is declared {claimed}: look for a sign, direction or column swap upstream.");
     }
 }

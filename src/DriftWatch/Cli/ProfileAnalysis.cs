@@ -12,7 +12,7 @@ internal static class ProfileAnalysis
     public static ProfileReport Run(
         PairedSample current,
         PairedSample? baseline,
-        PairExpectation expectation,
+        PairDeclaration declared,
         Thresholds thresholds,
         ProfileLabels labels)
     {
@@ -24,7 +24,7 @@ internal static class ProfileAnalysis
         var unmeasurable = Measurability.Assess(currentProfile, null, thresholds, labels.XName, labels.YName);
         var findings = unmeasurable is not null
             ? []
-            : FindingEngine.Assess(currentProfile, current, baselineProfile, baseline, expectation, thresholds, labels.XName, labels.YName);
+            : FindingEngine.Assess(currentProfile, current, baselineProfile, baseline, declared, thresholds, labels.XName, labels.YName);
         return new ProfileReport(currentProfile, baselineProfile, findings, labels, unmeasurable);
     }
 }

@@ -33,9 +33,9 @@ internal static class ProfileCommand
         var baselineX = new Option<string?>("--baseline-x") { Description = "Column of the baseline extract that holds x, if not named as --x.", HelpName = "COLUMN" };
         var baselineY = new Option<string?>("--baseline-y") { Description = "Column of the baseline extract that holds y, if not named as --y.", HelpName = "COLUMN" };
         var format = CommonOptions.Format();
-        var expectExact = new Option<bool>("--expect-exact")
+        var declaredExact = new Option<bool>("--declared-exact")
         {
-            Description = "y is meant to be an exact function of x (a derived column): exactness is then healthy and losing it is the finding.",
+            Description = "Declare the pair exact, as declared: {exact: true} does in a config file: y is meant to be an exact function of x (a derived column), so exactness is healthy and losing it is the finding.",
         };
         var alpha = CommonOptions.Number(
             "--alpha",
@@ -56,7 +56,7 @@ internal static class ProfileCommand
             "Exit code 0: no finding at warning or worse; 1: at least one; 2: bad input; 3: the extract has nothing to measure.\n\n" +
             "Example: driftwatch profile --csv orders_today.csv --x items --y total --baseline-csv orders_march.csv")
         {
-            csv, x, y, baselineCsv, baselineX, baselineY, format, expectExact, alpha, outlierT,
+            csv, x, y, baselineCsv, baselineX, baselineY, format, declaredExact, alpha, outlierT,
         };
 
         command.Validators.Add(result =>
@@ -91,7 +91,7 @@ internal static class ProfileCommand
                 parsed.GetValue(baselineCsv),
                 parsed.GetValue(baselineX),
                 parsed.GetValue(baselineY),
-                new PairExpectation(Exact: parsed.GetValue(expectExact)),
+                new PairDeclaration(Exact: parsed.GetValue(declaredExact)),
                 Thresholds.Default with
                 {
                     Alpha = parsed.GetValue(alpha) ?? Thresholds.DefaultAlpha,
@@ -112,7 +112,7 @@ internal static class ProfileCommand
         string? BaselineCsv,
         string? BaselineX,
         string? BaselineY,
-        PairExpectation Expectation,
+        PairDeclaration Declared,
         Thresholds Thresholds);
 
     private static int Run(CliConsole console, ProfileRequest request, OutputFormat format, CancellationToken cancellationToken)
@@ -126,7 +126,7 @@ internal static class ProfileCommand
             console.WriteWarning(warning);
         }
 
-        var report = ProfileAnalysis.Run(current.Sample, baseline?.Sample, request.Expectation, request.Thresholds, labels);
+        var report = ProfileAnalysis.Run(current.Sample, baseline?.Sample, request.Declared, request.Thresholds, labels);
         if (format == OutputFormat.Json)
         {
             console.Out.WriteLine(JsonContract.Serialize(JsonContract.ToJson(report)));

@@ -22,7 +22,7 @@ internal static class ConfigKeys
 
     public static readonly KeyLevel Window = new("window", ["column", "last"]);
 
-    public static readonly KeyLevel Expect = new("expect", ["direction", "exact"]);
+    public static readonly KeyLevel Declared = new("declared", ["direction", "exact"]);
 
     public static readonly KeyLevel Pair = new(
         "pair",
@@ -36,11 +36,14 @@ internal static class ConfigKeys
         ("window", Window),
         ("sample", Sample),
         ("schedule", null),
-        ("expect", Expect),
+        ("declared", Declared),
         ("thresholds", Thresholds),
         ("baseline", Baseline),
         ("notify", null),
-        ("tags", null));
+        ("tags", null))
+    {
+        Renamed = new Dictionary<string, string>(StringComparer.Ordinal) { ["expect"] = "declared" },
+    };
 
     public static readonly KeyLevel MailingList = new(
         "mailing_list", ["name", "channel", "recipients", "from_severity", "tags", "include_plot", "directory"]);

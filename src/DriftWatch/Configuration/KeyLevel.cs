@@ -27,6 +27,12 @@ internal sealed class KeyLevel
     /// <summary>In the order the docs list them.</summary>
     public IReadOnlyList<string> Keys { get; }
 
+    /// <summary>
+    /// Keys this level once allowed, each with the key that replaced it: an old file then fails with a message
+    /// that names the new key, not only "unknown key" (the new name is rarely close enough for a spelling hint).
+    /// </summary>
+    public IReadOnlyDictionary<string, string> Renamed { get; init; } = new Dictionary<string, string>(StringComparer.Ordinal);
+
     public bool Allows(string key) => _keys.ContainsKey(key);
 
     /// <summary>The level under <paramref name="key"/>, or null for a scalar or a list of scalars.</summary>

@@ -301,6 +301,12 @@ internal sealed class MappingReader
             return "YAML merge keys (<<) are not supported; use defaults: or repeat the keys";
         }
 
+        if (level.Renamed.TryGetValue(name, out var renamed))
+        {
+            var inside = level.Child(renamed) is { } child ? $" (same keys: {string.Join(", ", child.Keys)})" : string.Empty;
+            return $"unknown key '{name}'; it is now '{renamed}'{inside}: write {renamed}: instead of {name}:";
+        }
+
         var hint = KeyHints.Closest(name, level.Keys);
         if (hint is not null)
         {

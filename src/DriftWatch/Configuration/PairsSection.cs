@@ -67,7 +67,7 @@ internal static class PairsSection
         var window = ReadWindow(reader.Mapping("window", ConfigKeys.Window));
         var sample = SampleSection.Read(reader.Mapping("sample", ConfigKeys.Sample), defaults.Sample);
         var schedule = ScheduleKey.Read(reader) ?? defaults.Schedule;
-        var expect = ReadExpect(reader.Mapping("expect", ConfigKeys.Expect));
+        var declared = ReadDeclared(reader.Mapping("declared", ConfigKeys.Declared));
         var thresholds = ThresholdsSection.Read(reader.Mapping("thresholds", ConfigKeys.Thresholds), defaults.Thresholds);
         var baseline = BaselineSection.Read(reader.Mapping("baseline", ConfigKeys.Baseline)) ?? defaults.Baseline;
         var notify = ReadNotify(reader, lists);
@@ -89,7 +89,7 @@ internal static class PairsSection
             Window = window,
             Sample = sample,
             Schedule = schedule,
-            Expect = expect,
+            Declared = declared,
             Thresholds = thresholds,
             Baseline = baseline,
             Notify = notify,
@@ -208,21 +208,21 @@ internal static class PairsSection
         return column is null || last is null ? null : new WindowSpec(column, last.Value);
     }
 
-    private static PairExpectation ReadExpect(MappingReader? reader)
+    private static PairDeclaration ReadDeclared(MappingReader? reader)
     {
         if (reader is null)
         {
-            return PairExpectation.Default;
+            return PairDeclaration.None;
         }
 
         var direction = reader.Choice(
             "direction",
-            ("any", ExpectedDirection.Any),
-            ("positive", ExpectedDirection.Positive),
-            ("negative", ExpectedDirection.Negative)) ?? ExpectedDirection.Any;
+            ("any", DeclaredDirection.Any),
+            ("positive", DeclaredDirection.Positive),
+            ("negative", DeclaredDirection.Negative)) ?? DeclaredDirection.Any;
         var exact = reader.Bool("exact") ?? false;
         reader.Done();
-        return new PairExpectation(direction, exact);
+        return new PairDeclaration(direction, exact);
     }
 
     private static List<string> ReadNotify(MappingReader reader, IReadOnlySet<string> lists)

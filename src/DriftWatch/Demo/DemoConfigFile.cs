@@ -79,7 +79,7 @@ internal static class DemoConfigFile
                     x: {{pair.X}}
                     y: {{pair.Y}}
                     window: {column: {{pair.TimeColumn}}, last: 24h}   # each check sees that day's load only
-                    expect: {direction: positive}
+                    declared: {direction: positive}
                     tags: [{{(fault.Length == 0 ? "control" : "faulty")}}]
 
                 """);

@@ -48,7 +48,7 @@ internal sealed class PairChecker(
                 baseline = await baselines.GetOrBuildAsync(pair, startedAt, cancellationToken);
                 var previous = await store.GetRunsAsync(pair.Name, 1, includePoints: false, cancellationToken, before: startedAt);
                 findings = FindingEngine.Assess(
-                    profile, sampled.Sample, sampled.Figures, baseline, pair.Expect, pair.Thresholds, pair.X, pair.Y, startedAt, previous.Count > 0 ? previous[0].Findings : null);
+                    profile, sampled.Sample, sampled.Figures, baseline, pair.Declared, pair.Thresholds, pair.X, pair.Y, startedAt, previous.Count > 0 ? previous[0].Findings : null);
                 findings = await NameDrivingRowsAsync(adapter, pair, profile, findings, startedAt, cancellationToken);
             }
             else

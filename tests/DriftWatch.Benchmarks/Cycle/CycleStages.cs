@@ -64,7 +64,7 @@ internal static class CycleStages
                 var pair = pairs[i];
                 var sample = sampled[i].Sample;
                 var profile = Profiler.Profile(sample, pair.Thresholds);
-                var findings = FindingEngine.Assess(profile, sample, stored[i]?.Profile, stored[i]?.Points, pair.Expect, pair.Thresholds, pair.X, pair.Y);
+                var findings = FindingEngine.Assess(profile, sample, stored[i]?.Profile, stored[i]?.Points, pair.Declared, pair.Thresholds, pair.X, pair.Y);
                 runs[i] = new NewRun(pair.Name, started[i], time.GetUtcNow(), RunStatus.Succeeded, null, profile, findings, sampled[i].Figures, sample, sampled[i].Method);
             }
 

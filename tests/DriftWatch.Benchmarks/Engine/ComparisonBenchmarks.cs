@@ -32,5 +32,5 @@ public class ComparisonBenchmarks
 
     [Benchmark]
     public IReadOnlyList<Finding> Assess() =>
-        FindingEngine.Assess(_currentProfile, _current, _baselineProfile, _baseline, PairExpectation.Default, Thresholds.Default);
+        FindingEngine.Assess(_currentProfile, _current, _baselineProfile, _baseline, PairDeclaration.None, Thresholds.Default);
 }

@@ -10,13 +10,13 @@ public sealed class AssessTests
 {
     private static readonly PairedSample Baseline = Scenarios.Sample(Scenarios.Draw(seed: 1));
 
-    private static IReadOnlyList<Finding> Assess(PairedSample current, PairExpectation? expect = null, bool withBaseline = true) =>
+    private static IReadOnlyList<Finding> Assess(PairedSample current, PairDeclaration? declared = null, bool withBaseline = true) =>
         FindingEngine.Assess(
             Scenarios.Profile(current),
             current,
             withBaseline ? Scenarios.Profile(Baseline) : null,
             withBaseline ? Baseline : null,
-            expect ?? PairExpectation.Default,
+            declared ?? PairDeclaration.None,
             Thresholds.Default);
 
     [Fact]
@@ -32,7 +32,7 @@ public sealed class AssessTests
     [Fact]
     public void Assess_SignFlip_SupersedesCorrelationAndSlopeShift()
     {
-        var findings = Assess(Scenarios.Sample(Scenarios.Draw(seed: 32, slope: -2, intercept: 210)), new PairExpectation(ExpectedDirection.Positive));
+        var findings = Assess(Scenarios.Sample(Scenarios.Draw(seed: 32, slope: -2, intercept: 210)), new PairDeclaration(DeclaredDirection.Positive));
 
         Assert.Single(findings, f => f.Kind == FindingKind.SignFlip);
         Assert.DoesNotContain(findings, f => f.Kind is FindingKind.CorrelationShift or FindingKind.SlopeShift or FindingKind.OffsetShift);
@@ -57,7 +57,7 @@ public sealed class AssessTests
         var current = new PairedSample(x, y);
 
         var compared = FindingEngine.Compare(
-            Scenarios.Profile(current), current, Scenarios.Profile(Baseline), Baseline, PairExpectation.Default, Thresholds.Default);
+            Scenarios.Profile(current), current, Scenarios.Profile(Baseline), Baseline, PairDeclaration.None, Thresholds.Default);
         var assessed = Assess(current);
 
         // The raw comparison sees r and the slope collapse; without that row they are the baseline's.
@@ -82,8 +82,8 @@ public sealed class AssessTests
     public void Assess_WithoutBaseline_IsTheProfileFindingsOnly()
     {
         var sample = ReferenceData.Anscombe(3);
-        var expected = FindingEngine.ForProfile(Scenarios.Profile(sample), PairExpectation.Default, Thresholds.Default);
-        var actual = FindingEngine.Assess(Scenarios.Profile(sample), sample, (SourceFigures?)null, (StoredBaseline?)null, PairExpectation.Default, Thresholds.Default);
+        var expected = FindingEngine.ForProfile(Scenarios.Profile(sample), PairDeclaration.None, Thresholds.Default);
+        var actual = FindingEngine.Assess(Scenarios.Profile(sample), sample, (SourceFigures?)null, (StoredBaseline?)null, PairDeclaration.None, Thresholds.Default);
 
         Assert.Equal(expected, actual);
     }
@@ -93,7 +93,7 @@ public sealed class AssessTests
     {
         var current = Scenarios.Sample(Scenarios.Draw(seed: 35, xMean: 60, intercept: 40));
         var findings = FindingEngine.Assess(
-            Scenarios.Profile(current), current, Scenarios.Profile(Baseline), null, PairExpectation.Default, Thresholds.Default);
+            Scenarios.Profile(current), current, Scenarios.Profile(Baseline), null, PairDeclaration.None, Thresholds.Default);
 
         Assert.DoesNotContain(findings, f => f.Kind == FindingKind.MarginalShift);
         Assert.Contains(findings, f => f.Kind == FindingKind.OffsetShift);

@@ -44,7 +44,7 @@ public sealed class BaselineRunsTests
     private static IReadOnlyList<Finding> Assess((double[] X, double[] Y) day)
     {
         var sample = Scenarios.Sample(day);
-        return FindingEngine.Assess(Scenarios.Profile(sample), sample, (SourceFigures?)null, Baseline(), PairExpectation.Default, Thresholds.Default, "km", "fuel");
+        return FindingEngine.Assess(Scenarios.Profile(sample), sample, (SourceFigures?)null, Baseline(), PairDeclaration.None, Thresholds.Default, "km", "fuel");
     }
 
     [Fact]
@@ -147,7 +147,7 @@ public sealed class BaselineRunsTests
 
         var baseline = BaselineBuilder.Build("p", new BaselinePolicy(), runs, Day0.AddDays(5), s => Profiler.Profile(s, Thresholds.Default))!;
         var current = Scenarios.Sample(Day(310, slope: -2, noise: 40));
-        var findings = FindingEngine.Assess(Scenarios.Profile(current), current, (SourceFigures?)null, baseline, PairExpectation.Default, Thresholds.Default);
+        var findings = FindingEngine.Assess(Scenarios.Profile(current), current, (SourceFigures?)null, baseline, PairDeclaration.None, Thresholds.Default);
 
         var f = Assert.Single(findings, f => f.Kind == FindingKind.CorrelationShift);
         Assert.Contains("weakened", f.Message, StringComparison.Ordinal);
@@ -163,7 +163,7 @@ public sealed class BaselineRunsTests
         var baseline = Baseline();
         baseline = baseline with { Runs = [.. baseline.Runs.Select(r => r with { Rows = 50_000, Used = 50_000 })] };
 
-        var findings = FindingEngine.Assess(profile, sample, exact, baseline, PairExpectation.Default, Thresholds.Default);
+        var findings = FindingEngine.Assess(profile, sample, exact, baseline, PairDeclaration.None, Thresholds.Default);
 
         var f = Assert.Single(findings, f => f.Kind == FindingKind.SampleShrank);
         Assert.Equal(0.32, f.Effect!.Value, 2);
@@ -178,9 +178,9 @@ public sealed class BaselineRunsTests
         var yesterday = new Finding(FindingKind.SlopeShift, Severity.Warning, 1e-6, 1.16, "slope up");
         var baseline = Baseline();
 
-        var alone = FindingEngine.Assess(profile, sample, (SourceFigures?)null, baseline, PairExpectation.Default, Thresholds.Default);
-        var confirmed = FindingEngine.Assess(profile, sample, null, baseline, PairExpectation.Default, Thresholds.Default, previous: [yesterday]);
-        var opposite = FindingEngine.Assess(profile, sample, null, baseline, PairExpectation.Default, Thresholds.Default, previous: [yesterday with { Effect = 0.84 }]);
+        var alone = FindingEngine.Assess(profile, sample, (SourceFigures?)null, baseline, PairDeclaration.None, Thresholds.Default);
+        var confirmed = FindingEngine.Assess(profile, sample, null, baseline, PairDeclaration.None, Thresholds.Default, previous: [yesterday]);
+        var opposite = FindingEngine.Assess(profile, sample, null, baseline, PairDeclaration.None, Thresholds.Default, previous: [yesterday with { Effect = 0.84 }]);
 
         Assert.DoesNotContain(alone, f => f.Kind == FindingKind.SlopeShift);
         var f = Assert.Single(confirmed, f => f.Kind == FindingKind.SlopeShift);

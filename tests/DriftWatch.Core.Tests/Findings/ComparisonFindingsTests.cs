@@ -13,9 +13,9 @@ public sealed class ComparisonFindingsTests
 {
     private static readonly PairedSample Baseline = Scenarios.Sample(Scenarios.Draw(seed: 1));
 
-    private static IReadOnlyList<Finding> Compare(PairedSample current, PairExpectation? expect = null) =>
+    private static IReadOnlyList<Finding> Compare(PairedSample current, PairDeclaration? declared = null) =>
         FindingEngine.Compare(
-            Scenarios.Profile(current), current, Scenarios.Profile(Baseline), Baseline, expect ?? PairExpectation.Default, Thresholds.Default, "weight_declared", "weight_measured");
+            Scenarios.Profile(current), current, Scenarios.Profile(Baseline), Baseline, declared ?? PairDeclaration.None, Thresholds.Default, "weight_declared", "weight_measured");
 
     private static Finding Single(IReadOnlyList<Finding> findings, FindingKind kind) => Assert.Single(findings, f => f.Kind == kind);
 
@@ -46,7 +46,7 @@ public sealed class ComparisonFindingsTests
     public void Compare_YBecameDerivedButPairIsDeclaredExact_IsNotBecamePerfect()
     {
         var (x, _) = Scenarios.Draw(seed: 5);
-        var findings = Compare(new PairedSample(x, [.. x.Select(v => 2 * v)]), new PairExpectation(Exact: true));
+        var findings = Compare(new PairedSample(x, [.. x.Select(v => 2 * v)]), new PairDeclaration(Exact: true));
 
         Assert.DoesNotContain(findings, f => f.Kind == FindingKind.BecamePerfect);
     }
@@ -70,7 +70,7 @@ public sealed class ComparisonFindingsTests
         var big = Scenarios.Sample(Scenarios.Draw(seed: 7, n: 200_000, noise: 20));
         var bigger = Scenarios.Sample(Scenarios.Draw(seed: 8, n: 200_000, noise: 22));
         var findings = FindingEngine.Compare(
-            Scenarios.Profile(bigger), bigger, Scenarios.Profile(big), big, PairExpectation.Default, Thresholds.Default);
+            Scenarios.Profile(bigger), bigger, Scenarios.Profile(big), big, PairDeclaration.None, Thresholds.Default);
 
         Assert.DoesNotContain(findings, f => f.Kind == FindingKind.CorrelationShift);
     }
@@ -110,7 +110,7 @@ public sealed class ComparisonFindingsTests
         var (x, y) = Scenarios.Draw(seed: 11, noise: 5);
         var current = new PairedSample(x, [.. y.Select(v => v * factor)]);
         var findings = FindingEngine.Compare(
-            Scenarios.Profile(current), current, Scenarios.Profile(baseline), baseline, PairExpectation.Default, Thresholds.Default, "weight_declared", "weight_measured");
+            Scenarios.Profile(current), current, Scenarios.Profile(baseline), baseline, PairDeclaration.None, Thresholds.Default, "weight_declared", "weight_measured");
 
         var f = Single(findings, FindingKind.SlopeShift);
         Assert.Equal(Severity.Critical, f.Severity);

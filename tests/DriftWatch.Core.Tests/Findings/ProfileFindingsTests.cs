@@ -7,8 +7,8 @@ namespace DriftWatch.Core.Tests.Findings;
 
 public sealed class ProfileFindingsTests
 {
-    private static IReadOnlyList<Finding> For(PairedSample sample, PairExpectation? expect = null) =>
-        FindingEngine.ForProfile(Profiler.Profile(sample, Thresholds.Default), expect ?? PairExpectation.Default, Thresholds.Default, "amount_net", "amount_gross");
+    private static IReadOnlyList<Finding> For(PairedSample sample, PairDeclaration? declared = null) =>
+        FindingEngine.ForProfile(Profiler.Profile(sample, Thresholds.Default), declared ?? PairDeclaration.None, Thresholds.Default, "amount_net", "amount_gross");
 
     [Fact]
     public void ForProfile_OrdinaryNoisyLine_RaisesNothing()
@@ -40,7 +40,7 @@ public sealed class ProfileFindingsTests
     public void ForProfile_ExactAffineDeclaredExact_RaisesNothing()
     {
         var x = Generated.Uniform(new Random(22), 200, 1, 500);
-        Assert.Empty(For(new PairedSample(x, [.. x.Select(v => v * 3.6)]), new PairExpectation(Exact: true)));
+        Assert.Empty(For(new PairedSample(x, [.. x.Select(v => v * 3.6)]), new PairDeclaration(Exact: true)));
     }
 
     [Fact]
@@ -63,7 +63,7 @@ public sealed class ProfileFindingsTests
             y[i * 100] = x[i * 100];
         }
 
-        var findings = For(new PairedSample(x, y), new PairExpectation(Exact: true));
+        var findings = For(new PairedSample(x, y), new PairDeclaration(Exact: true));
 
         var f = Assert.Single(findings, g => g.Kind == FindingKind.ExactnessLost);
         Assert.Equal(Severity.Critical, f.Severity);
@@ -106,12 +106,12 @@ public sealed class ProfileFindingsTests
     {
         var sample = Scenarios.Sample(Scenarios.Draw(seed: 25, slope: -2, intercept: 210));
 
-        var f = Assert.Single(For(sample, new PairExpectation(ExpectedDirection.Positive)));
+        var f = Assert.Single(For(sample, new PairDeclaration(DeclaredDirection.Positive)));
 
         Assert.Equal(FindingKind.SignFlip, f.Kind);
         Assert.Equal(Severity.Critical, f.Severity);
         Assert.Contains("declared positive", f.Message, StringComparison.Ordinal);
-        Assert.Empty(For(sample, new PairExpectation(ExpectedDirection.Negative)));
+        Assert.Empty(For(sample, new PairDeclaration(DeclaredDirection.Negative)));
     }
 
     [Fact]

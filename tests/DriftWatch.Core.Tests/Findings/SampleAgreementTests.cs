@@ -36,7 +36,7 @@ public sealed class SampleAgreementTests
         var sample = new PairedSample(x[..10_000], y[..10_000]);
         var profile = Profiler.Profile(sample, Thresholds.Default);
 
-        var findings = FindingEngine.Assess(profile, sample, ExactOf(wx, wy), (StoredBaseline?)null, PairExpectation.Default, Thresholds.Default);
+        var findings = FindingEngine.Assess(profile, sample, ExactOf(wx, wy), (StoredBaseline?)null, PairDeclaration.None, Thresholds.Default);
 
         var f = Assert.Single(findings, f => f.Kind == FindingKind.HiddenRowsDriveLine);
         Assert.Equal(Severity.Critical, f.Severity);
@@ -54,7 +54,7 @@ public sealed class SampleAgreementTests
 
         Assert.False(SampleAgreement.Test(profile, ExactOf(x, y), Thresholds.Default)!.Disagrees);
         Assert.DoesNotContain(
-            FindingEngine.Assess(profile, sample, ExactOf(x, y), (StoredBaseline?)null, PairExpectation.Default, Thresholds.Default),
+            FindingEngine.Assess(profile, sample, ExactOf(x, y), (StoredBaseline?)null, PairDeclaration.None, Thresholds.Default),
             f => f.Kind == FindingKind.HiddenRowsDriveLine);
     }
 

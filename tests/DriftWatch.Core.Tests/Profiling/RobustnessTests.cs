@@ -43,8 +43,8 @@ public sealed class RobustnessTests
         var profile = Profiler.Profile(sample, Thresholds.Default);
         var baselineSample = new PairedSample(Generated.Normal(random, 50), Generated.Normal(random, 50));
         var baseline = Profiler.Profile(baselineSample, Thresholds.Default);
-        var findings = FindingEngine.Assess(profile, sample, baseline, baselineSample, new PairExpectation(ExpectedDirection.Positive, random.Next(2) == 0), Thresholds.Default);
-        var reverse = FindingEngine.Assess(baseline, baselineSample, profile, sample, PairExpectation.Default, Thresholds.Default);
+        var findings = FindingEngine.Assess(profile, sample, baseline, baselineSample, new PairDeclaration(DeclaredDirection.Positive, random.Next(2) == 0), Thresholds.Default);
+        var reverse = FindingEngine.Assess(baseline, baselineSample, profile, sample, PairDeclaration.None, Thresholds.Default);
 
         NumericalAccuracyTests.AssertNoNonFinite(profile);
         Assert.False(string.IsNullOrWhiteSpace(profile.ShapeReason));

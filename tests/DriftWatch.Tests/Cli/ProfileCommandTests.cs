@@ -55,6 +55,39 @@ public sealed class ProfileCommandTests
     }
 
     [Fact]
+    public async Task Profile_DeclaredExactOnAnscombeSet1_ExactnessLostExit1()
+    {
+        // Anscombe (1973): set 1 has r = 0.816, far from an exact function, so a pair declared exact has lost it.
+        var run = await CliRun.Of("profile", "--csv", Set1, "--x", "x", "--y", "y", "--declared-exact", "--format", "json");
+
+        Assert.Equal(ExitCodes.Findings, run.ExitCode);
+        var lost = Assert.Single(Json(run).GetProperty("findings").EnumerateArray(), f => f.GetProperty("kind").GetString() == "exactness_lost");
+        Assert.Equal("critical", lost.GetProperty("severity").GetString());
+    }
+
+    [Fact]
+    public async Task Profile_DeclaredExactOnExactPoundsToKilograms_ExactnessIsHealthy()
+    {
+        // Current y = x × 0.45359237 exactly (NIST SP 811, Appendix B): declared exact, it raises no exactness finding.
+        var run = await CliRun.Of("profile", "--csv", Set1InKg, "--x", "x", "--y", "y", "--baseline-csv", Set1, "--declared-exact", "--format", "json");
+
+        var kinds = Json(run).GetProperty("findings").EnumerateArray().Select(f => f.GetProperty("kind").GetString()).ToList();
+        Assert.True(Json(run).GetProperty("current").GetProperty("exact_affine").GetBoolean());
+        Assert.DoesNotContain("became_perfect", kinds);
+        Assert.DoesNotContain("perfect_relationship", kinds);
+        Assert.DoesNotContain("exactness_lost", kinds);
+    }
+
+    [Fact]
+    public async Task Profile_FormerExpectExactOption_IsRefused()
+    {
+        var run = await CliRun.Of("profile", "--csv", Set1, "--x", "x", "--y", "y", "--expect-exact");
+
+        Assert.Equal(ExitCodes.UsageError, run.ExitCode);
+        Assert.Contains("--expect-exact", run.Error, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public async Task Profile_BaselineColumnsNamedDifferently_UsesBaselineNames()
     {
         var baseline = TempCsv("pounds,kilos_measured\n" + string.Join('\n', File.ReadAllLines(Set1).Skip(1)) + "\n");

@@ -45,6 +45,14 @@ public sealed class ConfigLoaderErrorTests
     }
 
     [Fact]
+    public void Parse_OldExpectKey_PointsToDeclared()
+    {
+        // A file written before the key was renamed: the message names file, line, column and the new key.
+        var errors = Errors(OnePair + "    expect:\n      direction: positive\n      exact: true\n");
+        Assert.Equal(["test.yaml:11:5: pairs[0].expect: unknown key 'expect'; it is now 'declared' (same keys: direction, exact): write declared: instead of expect:"], errors);
+    }
+
+    [Fact]
     public void Parse_BadCron_QuotesQuartzReason()
     {
         // Quartz's own message for a minute of 61 (its CronExpression parser is the oracle).

@@ -129,7 +129,7 @@ public sealed class ConfigLoaderMappingTests : IDisposable
 
         // A five-field crontab line, in Quartz form: seconds 0 prepended, '?' for day-of-week.
         Assert.Equal("0 15 * * * ?", pair.Schedule);
-        Assert.Equal(new PairExpectation(ExpectedDirection.Positive, false), pair.Expect);
+        Assert.Equal(new PairDeclaration(DeclaredDirection.Positive, false), pair.Declared);
 
         // thresholds: the pair's key over the defaults' keys over the built-in values.
         Assert.Equal(Thresholds.Default with { Alpha = 0.05, OutlierT = 4, MinCorrelationChange = 0.25 }, pair.Thresholds);
@@ -149,7 +149,7 @@ public sealed class ConfigLoaderMappingTests : IDisposable
         var query = config.FindPair("net-vs-gross")!;
         Assert.Null(query.Table);
         Assert.Equal("SELECT net_total, gross_total FROM shop.invoices", query.Query);
-        Assert.Equal(new PairExpectation(ExpectedDirection.Negative, true), query.Expect);
+        Assert.Equal(new PairDeclaration(DeclaredDirection.Negative, true), query.Declared);
         Assert.Equal(new BaselinePolicy { Kind = BaselinePolicyKind.Rolling, RollingPeriod = TimeSpan.FromDays(30) }, query.Baseline);
         Assert.Equal(["team"], query.Notify);
 
@@ -159,7 +159,7 @@ public sealed class ConfigLoaderMappingTests : IDisposable
         Assert.Equal(Thresholds.Default with { Alpha = 0.05, OutlierT = 4 }, plain.Thresholds);
         Assert.Equal(new BaselinePolicy { Kind = BaselinePolicyKind.FirstRuns, FirstRuns = 8 }, plain.Baseline);
         Assert.Null(plain.Window);
-        Assert.Equal(PairExpectation.Default, plain.Expect);
+        Assert.Equal(PairDeclaration.None, plain.Declared);
         Assert.Empty(plain.Notify);
         Assert.Empty(plain.Tags);
     }

@@ -21,7 +21,7 @@ public sealed class ExampleConfigTests
 
         // The crontab line in the example is documented as "0 */30 * * * ?".
         Assert.Equal("0 */30 * * * ?", config.FindPair("delivery-km-vs-minutes")!.Schedule);
-        Assert.True(config.FindPair("net-vs-gross-total")!.Expect.Exact);
+        Assert.True(config.FindPair("net-vs-gross-total")!.Declared.Exact);
         Assert.Equal(StoreKind.Sqlite, config.Store.Kind);
     }
 

@@ -57,7 +57,7 @@ internal static class FullConfig
               rows: 300
               method: tablesample
             schedule: "15 * * * *"
-            expect:
+            declared:
               direction: positive
               exact: false
             thresholds:
@@ -73,7 +73,7 @@ internal static class FullConfig
             query: SELECT net_total, gross_total FROM shop.invoices;
             x: net_total
             y: gross_total
-            expect:
+            declared:
               direction: negative
               exact: true
             baseline:

@@ -141,7 +141,7 @@ internal sealed class DashboardScenario : IAsyncDisposable
                 var sample = Generate(pair.Name, cycle, random);
                 var profile = Profiler.Profile(sample, pair.Thresholds);
                 var baseline = await baselines.GetOrBuildAsync(pair, started, cancellationToken);
-                var findings = FindingEngine.Assess(profile, sample, baseline?.Profile, baseline?.Points, pair.Expect, pair.Thresholds, pair.X, pair.Y);
+                var findings = FindingEngine.Assess(profile, sample, baseline?.Profile, baseline?.Points, pair.Declared, pair.Thresholds, pair.X, pair.Y);
                 var id = await History.RecordRunAsync(new NewRun(pair.Name, started, finished, RunStatus.Succeeded, null, profile, findings, null, sample, "all"), cancellationToken);
                 outcomes.Add(PairOutcome.Success(pair.Name, id, findings));
             }

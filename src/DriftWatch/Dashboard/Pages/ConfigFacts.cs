@@ -44,7 +44,7 @@ internal static class ConfigFacts
 
         BaselineFacts.Fact(html, "Schedule", pair.Schedule + " (Quartz cron, seconds first)");
         BaselineFacts.Fact(html, "Sample", Sample(pair.Sample));
-        BaselineFacts.Fact(html, "Expect", Expect(pair.Expect));
+        BaselineFacts.Fact(html, "Declared", Declared(pair.Declared));
         BaselineFacts.Fact(html, "Baseline policy", pair.Baseline.ToString());
         if (pair.Tags.Count > 0)
         {
@@ -86,10 +86,10 @@ internal static class ConfigFacts
         return sample.Seed is { } seed ? text + ", seed " + seed.ToString(CultureInfo.InvariantCulture) : text;
     }
 
-    private static string Expect(PairExpectation expect)
+    private static string Declared(PairDeclaration declared)
     {
-        var direction = expect.Direction == ExpectedDirection.Any ? "any direction" : JsonContract.Name(expect.Direction) + " relationship";
-        return expect.Exact ? direction + ", exact function (a derived column)" : direction;
+        var direction = declared.Direction == DeclaredDirection.Any ? "any direction" : JsonContract.Name(declared.Direction) + " relationship";
+        return declared.Exact ? direction + ", exact function (a derived column)" : direction;
     }
 
     private static string Span(TimeSpan span) =>
