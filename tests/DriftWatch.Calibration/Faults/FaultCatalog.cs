@@ -25,7 +25,8 @@ internal static class FaultCatalog
     private static readonly FindingKind[] PartialCopy = [FindingKind.PartlyDerived, FindingKind.BecamePerfect, FindingKind.CorrelationShift];
     private static readonly FindingKind[] Slope = [FindingKind.SlopeShift];
     private static readonly FindingKind[] Offset = [FindingKind.OffsetShift];
-    private static readonly FindingKind[] Scrambled = [FindingKind.CorrelationShift, FindingKind.RelationshipLost, FindingKind.OutlierSurge];
+    // A shuffled key on a share f of rows also flattens the slope to about (1 − f)·b (regression dilution).
+    private static readonly FindingKind[] Scrambled = [FindingKind.CorrelationShift, FindingKind.RelationshipLost, FindingKind.OutlierSurge, FindingKind.SlopeShift];
     private static readonly FindingKind[] Stray = [FindingKind.OutlierSurge, FindingKind.LeverageAppeared, FindingKind.CorrelationShift, FindingKind.RelationshipLost];
     private static readonly FindingKind[] Nulls = [FindingKind.NullSurge];
     private static readonly FindingKind[] Sign = [FindingKind.SignFlip];
