@@ -280,9 +280,10 @@ internal static class ComparisonFindings
         {
             string without = cur.PearsonRWithoutTopInfluence is { } rw ? $"r would be {Numbers.Sig(rw)} without it" : "r is undefined without it";
 
-            // A row that alone changes r by a material amount changes what every reader of the table sees (a
-            // total row among detail rows): critical, as it may be gone again at the next load.
-            bool decisive = cur.PearsonR is { } r && (cur.PearsonRWithoutTopInfluence is not { } rw2 || Math.Abs(r - rw2) >= t.MinCorrelationChange);
+            // A row nearly alone in setting the line that also changes r by a material amount changes what every
+            // reader of the table sees (a total row among detail rows): critical, as it may be gone at the next load.
+            bool decisive = cur.MaxLeverage >= t.CriticalLeverageHat
+                && cur.PearsonR is { } r && (cur.PearsonRWithoutTopInfluence is not { } rw2 || Math.Abs(r - rw2) >= t.MinCorrelationChange);
             findings.Add(new Finding(
                 FindingKind.LeverageAppeared,
                 decisive ? Severity.Critical : Severity.Warning,

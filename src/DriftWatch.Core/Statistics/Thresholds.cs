@@ -25,6 +25,7 @@ public sealed record Thresholds
     public const double DefaultStrongRelationshipR = 0.5;
     public const double DefaultMinKsStatistic = 0.1;
     public const double DefaultMinDerivedShare = 0.2;
+    public const double DefaultCriticalLeverageHat = 0.9;
     public const int DefaultMinUsableRows = 10;
 
     /// <summary>Significance level for every hypothesis test in a comparison.</summary>
@@ -99,6 +100,13 @@ public sealed record Thresholds
     /// "ok"): Pearson's test has n − 2 degrees of freedom, and with a handful of rows every figure is noise.
     /// </summary>
     public int MinUsableRows { get; init; } = DefaultMinUsableRows;
+
+    /// <summary>
+    /// <c>leverage_appeared</c> is critical when the new row's hat value is at least this and the row alone moves r
+    /// by <see cref="MinCorrelationChange"/>: a row nearly alone in setting the line (a total row among detail rows
+    /// has h close to 1), not a large but ordinary value of a skewed column, which stays a warning.
+    /// </summary>
+    public double CriticalLeverageHat { get; init; } = DefaultCriticalLeverageHat;
 
     public static Thresholds Default { get; } = new();
 }

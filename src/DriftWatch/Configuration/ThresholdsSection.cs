@@ -20,6 +20,7 @@ internal static class ThresholdsSection
         ("min_slope_ratio_change", NumberRange.NonNegative, (t, v) => t with { MinSlopeRatioChange = v }),
         ("unit_factor_tolerance", new NumberRange(0, true, 1, false), (t, v) => t with { UnitFactorTolerance = v }),
         ("min_derived_share", NumberRange.Fraction, (t, v) => t with { MinDerivedShare = v }),
+        ("critical_leverage_hat", NumberRange.Fraction, (t, v) => t with { CriticalLeverageHat = v }),
         ("unit_factor_max_tolerance", new NumberRange(0, true, 1, false), (t, v) => t with { UnitFactorMaxTolerance = v }),
         ("curvature_min_r2_gain", NumberRange.Fraction, (t, v) => t with { CurvatureMinR2Gain = v }),
         ("min_outlier_rate_increase", NumberRange.Fraction, (t, v) => t with { MinOutlierRateIncrease = v }),
