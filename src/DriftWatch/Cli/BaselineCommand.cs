@@ -19,7 +19,7 @@ internal static class BaselineCommand
     {
         ArgumentNullException.ThrowIfNull(console);
         var command = new Command("baseline", "Show, accept or reset the baseline a pair is compared with.");
-        command.Subcommands.Add(Sub(console, "show", "Show the pair's baseline: policy, period, runs pooled and its profile.", ShowAsync));
+        command.Subcommands.Add(Sub(console, "show", "Show the pair's baseline: policy, period, each pooled run's figures and the spread between them, and the pooled profile.", ShowAsync));
         command.Subcommands.Add(Sub(console, "accept", "Adopt the pair's latest successful run as its baseline (after an intentional change).", AcceptAsync));
         command.Subcommands.Add(Sub(console, "reset", "Forget the pair's baseline; the next check rebuilds it by the pair's baseline policy.", ResetAsync));
         return command;
@@ -57,6 +57,8 @@ internal static class BaselineCommand
         }
 
         Describe(console, baseline);
+        BaselineRunsView.Render(console.Ansi, baseline);
+        console.Ansi.MarkupLine($"[grey]The profile below describes the reservoir of {baseline.Points.UsedCount.ToString(System.Globalization.CultureInfo.InvariantCulture)} points pooled from those runs (for plots and distributions); a check is compared with the runs above.[/]");
         ProfileView.Render(console.Ansi, new ProfileReport(baseline.Profile, null, [], new ProfileLabels(pair.X, pair.Y, "baseline", null)));
         return ExitCodes.Healthy;
     }

@@ -12,7 +12,7 @@ internal static class Readable
 
     private const int Significant = 4;
 
-    public static string Count(int? value) =>
+    public static string Count(long? value) =>
         value is { } v ? v.ToString("N0", CultureInfo.InvariantCulture) : Undefined;
 
     /// <summary>12,345 · 118.0 · 3.000 · 0.8164 · 0.001235 · 1.235e-05; never an exponent between 1e-4 and 1e15.</summary>

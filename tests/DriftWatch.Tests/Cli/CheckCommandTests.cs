@@ -243,6 +243,26 @@ public sealed class CheckCommandTests : IDisposable
     }
 
     [Fact]
+    public async Task BaselineShow_ListsEachPooledRunAndTheSpreadBetweenThem()
+    {
+        Assert.Equal(0, (await CliRun.Of("check", "--config", ConfigPath)).ExitCode);
+        Assert.Equal(0, (await CliRun.Of("check", "--config", ConfigPath)).ExitCode);
+        Assert.Equal(0, (await CliRun.Of("check", "--config", ConfigPath)).ExitCode);
+
+        var show = await CliRun.Of("baseline", "show", "hours-vs-pallets", "--config", ConfigPath);
+
+        Assert.Equal(0, show.ExitCode);
+        Assert.Contains("2 pooled runs", show.Out, StringComparison.Ordinal);
+
+        // Both pooled runs read the same 400 rows, so the spread between them is 0 and their r is MathNet's r.
+        var runRows = show.Out.Split('\n').Where(l => l.Contains("│ 400 ", StringComparison.Ordinal)).ToArray();
+        Assert.Equal(2, runRows.Length);
+        Assert.Contains(DriftWatch.Output.Readable.Number(Correlation.Pearson(_x, _y)), runRows[0], StringComparison.Ordinal);
+        var spread = Assert.Single(show.Out.Split('\n'), l => l.Contains("spread (SD)", StringComparison.Ordinal));
+        Assert.Contains("│ 0 ", spread, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public async Task Check_BadConfiguration_ExitsTwoWithFileLineAndKey()
     {
         File.WriteAllText(ConfigPath, File.ReadAllText(ConfigPath).Replace("    x: crew_hours", "    x: crew_hours\n    smaple:\n      rows: 100", StringComparison.Ordinal));
