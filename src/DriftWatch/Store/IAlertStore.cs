@@ -15,10 +15,13 @@ internal interface IAlertStore
     /// <summary>
     /// Writes the decision's alert changes and the outbox messages in ONE transaction, so an alert is never
     /// marked notified without its message queued, nor a message queued for a state that was not stored.
+    /// With a <paramref name="position"/>, the run feed's watermark is written in the same transaction: the runs
+    /// behind the decision are marked read exactly when the decision is stored, so a crash at any point neither
+    /// loses a decision nor makes one twice from the same runs.
     /// Returns <see cref="CycleDecision.Changes"/> in the same order, new ones with their ids. An outbox message
     /// whose Message-Id is already stored is skipped (the cycle was retried).
     /// </summary>
-    Task<IReadOnlyList<AlertState>> ApplyCycleAsync(CycleDecision decision, IReadOnlyList<OutboxMessage> outbox, CancellationToken cancellationToken);
+    Task<IReadOnlyList<AlertState>> ApplyCycleAsync(CycleDecision decision, IReadOnlyList<OutboxMessage> outbox, FeedPosition? position, CancellationToken cancellationToken);
 
     /// <summary>Open alerts and those cleared at or after <paramref name="clearedSince"/>, newest first.</summary>
     Task<IReadOnlyList<AlertState>> ListAlertsAsync(DateTimeOffset clearedSince, int limit, CancellationToken cancellationToken, string? pair = null);

@@ -37,9 +37,9 @@ public abstract class AlertStoreContract
         var confirmed = State("orders", FindingKind.BecamePerfect, Severity.Critical, AlertStatus.Confirmed) with { ConfirmedAt = T0, LastNotifiedAt = T0 };
         var other = State("invoices", FindingKind.NullSurge, Severity.Warning, AlertStatus.Watching);
 
-        var saved = await store.ApplyCycleAsync(new CycleDecision(T0, [watching, confirmed, other], []), [], CancellationToken.None);
+        var saved = await store.ApplyCycleAsync(new CycleDecision(T0, [watching, confirmed, other], []), [], null, CancellationToken.None);
         var later = saved[0] with { Status = AlertStatus.Confirmed, ConsecutiveRuns = 2, LastSeen = T0.AddHours(1), ConfirmedAt = T0.AddHours(1), Message = "slope doubled" };
-        await store.ApplyCycleAsync(new CycleDecision(T0.AddHours(1), [later], []), [], CancellationToken.None);
+        await store.ApplyCycleAsync(new CycleDecision(T0.AddHours(1), [later], []), [], null, CancellationToken.None);
 
         Assert.All(saved, s => Assert.True(s.Id > 0));
         Assert.Equal(3, saved.Select(s => s.Id).Distinct().Count());
@@ -56,7 +56,7 @@ public abstract class AlertStoreContract
         // A NULL subject violates the outbox's NOT NULL constraint inside the transaction.
         var broken = new OutboxMessage("dw-broken@driftwatch.local", "team", ChannelKind.Smtp, T0, null!, [], [1, 2, 3]);
 
-        await Assert.ThrowsAnyAsync<Exception>(() => store.ApplyCycleAsync(new CycleDecision(T0, [alert], [new AlertNotification(alert, NotificationKind.Confirmed)]), [broken], CancellationToken.None));
+        await Assert.ThrowsAnyAsync<Exception>(() => store.ApplyCycleAsync(new CycleDecision(T0, [alert], [new AlertNotification(alert, NotificationKind.Confirmed)]), [broken], null, CancellationToken.None));
 
         Assert.Empty(await store.GetOpenAlertsAsync(null, CancellationToken.None));
         Assert.Empty(await store.ListOutboxAsync(false, 10, CancellationToken.None));
@@ -67,9 +67,9 @@ public abstract class AlertStoreContract
     {
         var store = new AlertStore(await DatabaseAsync());
         var alert = State("orders", FindingKind.SignFlip, Severity.Critical, AlertStatus.Confirmed);
-        await store.ApplyCycleAsync(new CycleDecision(T0, [alert], []), [], CancellationToken.None);
+        await store.ApplyCycleAsync(new CycleDecision(T0, [alert], []), [], null, CancellationToken.None);
 
-        await Assert.ThrowsAnyAsync<Exception>(() => store.ApplyCycleAsync(new CycleDecision(T0, [alert with { FirstSeen = T0.AddHours(1) }], []), [], CancellationToken.None));
+        await Assert.ThrowsAnyAsync<Exception>(() => store.ApplyCycleAsync(new CycleDecision(T0, [alert with { FirstSeen = T0.AddHours(1) }], []), [], null, CancellationToken.None));
 
         Assert.Single(await store.GetOpenAlertsAsync(null, CancellationToken.None));
     }
@@ -80,8 +80,8 @@ public abstract class AlertStoreContract
         var store = new AlertStore(await DatabaseAsync());
         var message = Message("dw-once@driftwatch.local");
 
-        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [message], CancellationToken.None);
-        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [message], CancellationToken.None);
+        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [message], null, CancellationToken.None);
+        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [message], null, CancellationToken.None);
 
         var entry = Assert.Single(await store.ListOutboxAsync(false, 10, CancellationToken.None));
         Assert.Equal(message.MessageId, entry.MessageId);
@@ -94,12 +94,12 @@ public abstract class AlertStoreContract
     public async Task Ack_OpenAlert_IsKeptAcrossLaterCycles_AndClearedAlertsCannotBeAcked()
     {
         var store = new AlertStore(await DatabaseAsync());
-        var saved = (await store.ApplyCycleAsync(new CycleDecision(T0, [State("orders", FindingKind.SignFlip, Severity.Critical, AlertStatus.Confirmed)], []), [], CancellationToken.None))[0];
+        var saved = (await store.ApplyCycleAsync(new CycleDecision(T0, [State("orders", FindingKind.SignFlip, Severity.Critical, AlertStatus.Confirmed)], []), [], null, CancellationToken.None))[0];
 
         Assert.True(await store.AckAsync(saved.Id, T0.AddMinutes(5), CancellationToken.None));
         // The lifecycle loaded the state before the ack: its write must not erase the ack.
-        var update = await store.ApplyCycleAsync(new CycleDecision(T0.AddHours(1), [saved with { ConsecutiveRuns = 2 }], []), [], CancellationToken.None);
-        var cleared = await store.ApplyCycleAsync(new CycleDecision(T0.AddHours(2), [update[0] with { Status = AlertStatus.Cleared, ClearedAt = T0.AddHours(2) }], []), [], CancellationToken.None);
+        var update = await store.ApplyCycleAsync(new CycleDecision(T0.AddHours(1), [saved with { ConsecutiveRuns = 2 }], []), [], null, CancellationToken.None);
+        var cleared = await store.ApplyCycleAsync(new CycleDecision(T0.AddHours(2), [update[0] with { Status = AlertStatus.Cleared, ClearedAt = T0.AddHours(2) }], []), [], null, CancellationToken.None);
 
         Assert.Equal(T0.AddMinutes(5), update[0].AckedAt);
         Assert.Equal(T0.AddMinutes(5), (await store.GetAlertAsync(saved.Id, CancellationToken.None))!.AckedAt);
@@ -131,7 +131,7 @@ public abstract class AlertStoreContract
         var database = await DatabaseAsync();
         var store = new AlertStore(database);
         var other = new AlertStore(database);
-        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [Message("dw-1@driftwatch.local"), Message("dw-2@driftwatch.local")], CancellationToken.None);
+        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [Message("dw-1@driftwatch.local"), Message("dw-2@driftwatch.local")], null, CancellationToken.None);
 
         var first = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), 10, CancellationToken.None);
         var during = await other.ClaimDueAsync(T0.AddMinutes(4), TimeSpan.FromMinutes(5), 10, CancellationToken.None);
@@ -149,7 +149,7 @@ public abstract class AlertStoreContract
     {
         var database = await DatabaseAsync();
         var store = new AlertStore(database);
-        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [.. Enumerable.Range(0, 40).Select(i => Message($"dw-{i}@driftwatch.local"))], CancellationToken.None);
+        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [.. Enumerable.Range(0, 40).Select(i => Message($"dw-{i}@driftwatch.local"))], null, CancellationToken.None);
 
         // Four dispatchers (own store objects, own connections) claim in parallel until nothing is left.
         var claimers = Enumerable.Range(0, 4).Select(async _ =>
@@ -173,7 +173,7 @@ public abstract class AlertStoreContract
     public async Task MarkFailed_RecordsTheErrorAndTheNextAttempt()
     {
         var store = new AlertStore(await DatabaseAsync());
-        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [Message("dw-f@driftwatch.local")], CancellationToken.None);
+        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [Message("dw-f@driftwatch.local")], null, CancellationToken.None);
         var entry = Assert.Single(await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), 10, CancellationToken.None));
 
         await store.MarkFailedAsync(entry.Id, "connection refused", T0.AddMinutes(2), CancellationToken.None);
@@ -191,7 +191,7 @@ public abstract class AlertStoreContract
         var clearedOld = State("a", FindingKind.SignFlip, Severity.Critical, AlertStatus.Cleared) with { ClearedAt = T0 };
         var clearedNew = State("b", FindingKind.SignFlip, Severity.Critical, AlertStatus.Cleared) with { ClearedAt = T0.AddDays(10) };
         var open = State("c", FindingKind.SignFlip, Severity.Critical, AlertStatus.Confirmed);
-        await store.ApplyCycleAsync(new CycleDecision(T0, [clearedOld, clearedNew, open], []), [Message("dw-old@driftwatch.local"), Message("dw-new@driftwatch.local"), Message("dw-unsent@driftwatch.local")], CancellationToken.None);
+        await store.ApplyCycleAsync(new CycleDecision(T0, [clearedOld, clearedNew, open], []), [Message("dw-old@driftwatch.local"), Message("dw-new@driftwatch.local"), Message("dw-unsent@driftwatch.local")], null, CancellationToken.None);
         var entries = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), 10, CancellationToken.None);
         await store.MarkSentAsync(entries.Single(e => e.MessageId == "dw-old@driftwatch.local").Id, T0, CancellationToken.None);
         await store.MarkSentAsync(entries.Single(e => e.MessageId == "dw-new@driftwatch.local").Id, T0.AddDays(10), CancellationToken.None);
@@ -212,7 +212,7 @@ public abstract class AlertStoreContract
             State("old", FindingKind.SignFlip, Severity.Critical, AlertStatus.Cleared) with { ClearedAt = T0.AddDays(-30) },
             State("recent", FindingKind.SignFlip, Severity.Critical, AlertStatus.Cleared) with { ClearedAt = T0.AddDays(-1), LastSeen = T0.AddHours(5) },
             State("open", FindingKind.SignFlip, Severity.Warning, AlertStatus.Watching),
-        ], []), [], CancellationToken.None);
+        ], []), [], null, CancellationToken.None);
 
         var listed = await store.ListAlertsAsync(T0.AddDays(-7), 10, CancellationToken.None);
         var forPair = await store.ListAlertsAsync(T0.AddDays(-7), 10, CancellationToken.None, pair: "recent");

@@ -86,6 +86,7 @@ public abstract partial class AlertVocabularyMigrationContract : IAsyncLifetime
         var saved = await store.ApplyCycleAsync(
             new CycleDecision(T0, [new AlertState(0, "invoices", FindingKind.NullSurge, Severity.Warning, AlertStatus.Watching, 1, T0, T0, null, null, null, null, "nulls", null)], []),
             [],
+            null,
             CancellationToken.None);
         Assert.True(saved[0].Id > 4, $"new id {saved[0].Id} must exceed the deleted 4");
 
