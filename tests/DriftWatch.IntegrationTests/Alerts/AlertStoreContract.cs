@@ -25,8 +25,8 @@ public abstract class AlertStoreContract
         var versions = await connection.QueryAsync<int>("SELECT version FROM schema_migrations ORDER BY version");
 
         // 001 history, 002 alerts, 003 worker state, 004 unmeasurable runs, 005 baseline runs, 006 alert
-        // vocabulary: all of them, in order.
-        Assert.Equal([1, 2, 3, 4, 5, 6], versions);
+        // vocabulary, 007 outbox claims: all of them, in order.
+        Assert.Equal([1, 2, 3, 4, 5, 6, 7], versions);
     }
 
     [Fact]
@@ -133,10 +133,10 @@ public abstract class AlertStoreContract
         var other = new AlertStore(database);
         await store.ApplyCycleAsync(CycleDecision.Empty(T0), [Message("dw-1@driftwatch.local"), Message("dw-2@driftwatch.local")], null, CancellationToken.None);
 
-        var first = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), 10, CancellationToken.None);
-        var during = await other.ClaimDueAsync(T0.AddMinutes(4), TimeSpan.FromMinutes(5), 10, CancellationToken.None);
+        var first = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), "worker-a", 10, CancellationToken.None);
+        var during = await other.ClaimDueAsync(T0.AddMinutes(4), TimeSpan.FromMinutes(5), "worker-b", 10, CancellationToken.None);
         await store.MarkSentAsync(first[0].Id, T0.AddMinutes(1), CancellationToken.None);
-        var after = await other.ClaimDueAsync(T0.AddMinutes(5), TimeSpan.FromMinutes(5), 10, CancellationToken.None);
+        var after = await other.ClaimDueAsync(T0.AddMinutes(5), TimeSpan.FromMinutes(5), "worker-b", 10, CancellationToken.None);
 
         Assert.Equal(["dw-1@driftwatch.local", "dw-2@driftwatch.local"], first.Select(e => e.MessageId));
         Assert.Equal([1, 2, 3], first[0].Mime);
@@ -156,7 +156,7 @@ public abstract class AlertStoreContract
         {
             var mine = new List<string>();
             var own = new AlertStore(await ReopenAsync());
-            while (await own.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), 3, CancellationToken.None) is { Count: > 0 } batch)
+            while (await own.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), "worker-a", 3, CancellationToken.None) is { Count: > 0 } batch)
             {
                 mine.AddRange(batch.Select(e => e.MessageId));
             }
@@ -174,14 +174,50 @@ public abstract class AlertStoreContract
     {
         var store = new AlertStore(await DatabaseAsync());
         await store.ApplyCycleAsync(CycleDecision.Empty(T0), [Message("dw-f@driftwatch.local")], null, CancellationToken.None);
-        var entry = Assert.Single(await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), 10, CancellationToken.None));
+        var entry = Assert.Single(await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), "worker-a", 10, CancellationToken.None));
 
         await store.MarkFailedAsync(entry.Id, "connection refused", T0.AddMinutes(2), CancellationToken.None);
 
         var stored = Assert.Single(await store.ListOutboxAsync(true, 10, CancellationToken.None));
         Assert.Equal((1, "connection refused", T0.AddMinutes(2)), (stored.Attempts, stored.LastError, stored.NextAttemptAt));
-        Assert.Empty(await store.ClaimDueAsync(T0.AddMinutes(1), TimeSpan.FromMinutes(5), 10, CancellationToken.None));
-        Assert.Single(await store.ClaimDueAsync(T0.AddMinutes(2), TimeSpan.FromMinutes(5), 10, CancellationToken.None));
+        Assert.Empty(await store.ClaimDueAsync(T0.AddMinutes(1), TimeSpan.FromMinutes(5), "worker-a", 10, CancellationToken.None));
+        Assert.Single(await store.ClaimDueAsync(T0.AddMinutes(2), TimeSpan.FromMinutes(5), "worker-a", 10, CancellationToken.None));
+    }
+
+    [Fact]
+    public async Task TakeBackClaims_OwnClaimsAreDueAtOnce_OtherOwnersAndFailedOnesKeepTheirTime()
+    {
+        var store = new AlertStore(await DatabaseAsync());
+        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [Message("dw-a@driftwatch.local"), Message("dw-b@driftwatch.local"), Message("dw-f@driftwatch.local")], null, CancellationToken.None);
+        var a = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(1), "worker-a", 1, CancellationToken.None);
+        var b = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(1), "worker-b", 1, CancellationToken.None);
+        var f = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(1), "worker-a", 1, CancellationToken.None);
+        await store.MarkFailedAsync(f[0].Id, "connection refused", T0.AddMinutes(10), CancellationToken.None);
+
+        var taken = await store.TakeBackClaimsAsync("worker-a", T0.AddSeconds(5), CancellationToken.None);
+        var due = await store.ClaimDueAsync(T0.AddSeconds(5), TimeSpan.FromMinutes(1), "worker-c", 10, CancellationToken.None);
+
+        // Only worker-a's message still in hand: worker-b may be sending its own, the failed one waits for its retry.
+        Assert.Equal(1, taken);
+        Assert.Equal([a[0].MessageId], due.Select(e => e.MessageId));
+        Assert.Equal("dw-b@driftwatch.local", b[0].MessageId);
+    }
+
+    [Fact]
+    public async Task RenewClaims_ExtendsLeasesStillHeld_NeverARetryAlreadyScheduled()
+    {
+        var store = new AlertStore(await DatabaseAsync());
+        await store.ApplyCycleAsync(CycleDecision.Empty(T0), [Message("dw-1@driftwatch.local"), Message("dw-2@driftwatch.local")], null, CancellationToken.None);
+        var claimed = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(1), "worker-a", 10, CancellationToken.None);
+        await store.MarkFailedAsync(claimed[1].Id, "connection refused", T0.AddMinutes(10), CancellationToken.None);
+
+        var renewed = await store.RenewClaimsAsync([claimed[0].Id, claimed[1].Id], "worker-a", T0.AddSeconds(80), CancellationToken.None);
+        var byOther = await store.RenewClaimsAsync([claimed[0].Id], "worker-b", T0.AddMinutes(30), CancellationToken.None);
+
+        Assert.Equal((1, 0), (renewed, byOther));
+        var stored = (await store.ListOutboxAsync(true, 10, CancellationToken.None)).ToDictionary(e => e.MessageId, e => e.NextAttemptAt);
+        Assert.Equal(T0.AddSeconds(80), stored["dw-1@driftwatch.local"]);
+        Assert.Equal(T0.AddMinutes(10), stored["dw-2@driftwatch.local"]);
     }
 
     [Fact]
@@ -192,7 +228,7 @@ public abstract class AlertStoreContract
         var clearedNew = State("b", FindingKind.SignFlip, Severity.Critical, AlertStatus.Cleared) with { ClearedAt = T0.AddDays(10) };
         var open = State("c", FindingKind.SignFlip, Severity.Critical, AlertStatus.Confirmed);
         await store.ApplyCycleAsync(new CycleDecision(T0, [clearedOld, clearedNew, open], []), [Message("dw-old@driftwatch.local"), Message("dw-new@driftwatch.local"), Message("dw-unsent@driftwatch.local")], null, CancellationToken.None);
-        var entries = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), 10, CancellationToken.None);
+        var entries = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), "worker-a", 10, CancellationToken.None);
         await store.MarkSentAsync(entries.Single(e => e.MessageId == "dw-old@driftwatch.local").Id, T0, CancellationToken.None);
         await store.MarkSentAsync(entries.Single(e => e.MessageId == "dw-new@driftwatch.local").Id, T0.AddDays(10), CancellationToken.None);
 
