@@ -8,4 +8,10 @@ public sealed record WorkerConfig
 
     /// <summary>On SIGTERM or Ctrl+C, how long running checks may go on before they are cancelled.</summary>
     public TimeSpan StopGrace { get; init; } = DefaultStopGrace;
+
+    /// <summary>
+    /// Names this worker among those sharing the store, the same across its restarts; it owns the outbox rows the
+    /// worker claims, so a restarted worker takes its own claims back at once. Null: the host name.
+    /// </summary>
+    public string? Id { get; init; }
 }

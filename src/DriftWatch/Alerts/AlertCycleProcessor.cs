@@ -8,8 +8,8 @@ namespace DriftWatch.Alerts;
 
 /// <summary>
 /// One alerting cycle, called by the monitor after it has recorded the runs: false-discovery step over the
-/// cycle's p-value findings, lifecycle, addressing, one digest per mailing list, and the states plus the outbox rows in
-/// one transaction. Sending is the dispatcher's job (woken here); an SMTP outage cannot lose an alert.
+/// cycle's p-value findings, lifecycle, addressing, one digest per mailing list, and the states, the outbox rows and
+/// the run feed's watermark in one transaction. Sending is the dispatcher's job (woken here); an SMTP outage cannot lose an alert.
 /// </summary>
 internal sealed class AlertCycleProcessor(
     IAlertStore store,
@@ -20,9 +20,11 @@ internal sealed class AlertCycleProcessor(
 {
     /// <param name="outcomes">This cycle's checks, findings as the comparison produced them (the FDR step is applied here).</param>
     /// <param name="contexts">Per pair name: its configuration and the profiles and points a digest shows.</param>
+    /// <param name="position">The run feed's position after these outcomes, committed with them (null when they came from no feed).</param>
     public async Task<AlertCycleResult> ProcessAsync(
         IReadOnlyList<PairOutcome> outcomes,
         IReadOnlyDictionary<string, AlertPairContext> contexts,
+        FeedPosition? position,
         CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(outcomes);
@@ -49,7 +51,7 @@ internal sealed class AlertCycleProcessor(
             }
         }
 
-        var saved = await store.ApplyCycleAsync(decision, outbox, cancellationToken);
+        var saved = await store.ApplyCycleAsync(decision, outbox, position, cancellationToken);
         if (outbox.Count > 0)
         {
             signal.Notify();

@@ -3,7 +3,10 @@ using Microsoft.Extensions.Logging;
 
 namespace DriftWatch.Alerts;
 
-/// <summary>Runs the dispatcher in the worker: at start (messages left from before a restart), after every cycle, and on a poll.</summary>
+/// <summary>
+/// Runs the dispatcher in the worker: at start (its own claims from before a restart taken back first, then every
+/// message due), after every cycle, and on a poll.
+/// </summary>
 internal sealed class OutboxDispatchService(
     OutboxDispatcher dispatcher,
     OutboxSignal signal,
@@ -16,10 +19,18 @@ internal sealed class OutboxDispatchService(
     protected override async Task ExecuteAsync(CancellationToken stoppingToken)
     {
         var lastPrune = DateTimeOffset.MinValue;
+        var tookBack = false;
         while (!stoppingToken.IsCancellationRequested)
         {
             try
             {
+                if (!tookBack)
+                {
+                    // Before the first claim: what this worker held when it last stopped is sent now, not after its lease.
+                    await dispatcher.TakeBackOwnClaimsAsync(stoppingToken);
+                    tookBack = true;
+                }
+
                 await dispatcher.DispatchDueAsync(stoppingToken);
                 if (time.GetUtcNow() - lastPrune >= PruneEvery)
                 {

@@ -6,8 +6,10 @@ using MimeKit;
 namespace DriftWatch.Alerts;
 
 /// <summary>
-/// Sends what the outbox holds. Each message is claimed (leased), sent, then marked sent; a failure records the
-/// error and schedules the next attempt with backoff and jitter. When a mailing list's channel is down, that list's
+/// Sends what the outbox holds. Each message is claimed (leased to this dispatcher's owner), sent, then marked sent;
+/// a failure records the error and schedules the next attempt with backoff and jitter. The leases of a batch in hand
+/// are renewed while it is sent, so they can be short: a dispatcher that dies frees its messages within one lease,
+/// and a worker restarted under the same name takes them back at once (<see cref="TakeBackOwnClaimsAsync"/>). When a mailing list's channel is down, that list's
 /// other claimed messages wait for their lease to run out instead of each waiting on the same dead server,
 /// while the other lists carry on. Nothing is ever dropped: an outage only delays.
 /// </summary>
@@ -28,7 +30,7 @@ internal sealed class OutboxDispatcher(
         var total = DispatchResult.None;
         while (true)
         {
-            var batch = await store.ClaimDueAsync(time.GetUtcNow(), options.Lease, options.BatchSize, cancellationToken);
+            var batch = await store.ClaimDueAsync(time.GetUtcNow(), options.Lease, options.ClaimOwner, options.BatchSize, cancellationToken);
             if (batch.Count == 0)
             {
                 return total;
@@ -43,6 +45,21 @@ internal sealed class OutboxDispatcher(
         }
     }
 
+    /// <summary>
+    /// Makes the messages this owner had claimed before a crash or a kill due now. Called by the worker at start,
+    /// before its first dispatch: nothing of this owner can be in hand yet.
+    /// </summary>
+    public async Task<int> TakeBackOwnClaimsAsync(CancellationToken cancellationToken)
+    {
+        var taken = await store.TakeBackClaimsAsync(options.ClaimOwner, time.GetUtcNow(), cancellationToken);
+        if (taken > 0)
+        {
+            logger.LogWarning("Took back {Count} alert messages claimed by {Owner} before it stopped; they are sent now (one accepted just before the stop may arrive twice, with the same Message-Id)", taken, options.ClaimOwner);
+        }
+
+        return taken;
+    }
+
     /// <summary>Deletes sent messages and cleared alerts past their retention.</summary>
     public Task<int> PruneAsync(CancellationToken cancellationToken)
     {
@@ -52,14 +69,31 @@ internal sealed class OutboxDispatcher(
 
     private async Task<DispatchResult> DispatchBatchAsync(IReadOnlyList<OutboxEntry> batch, CancellationToken cancellationToken)
     {
+        var inHand = new HashSet<long>(batch.Select(e => e.Id));
+        using var stopRenewing = CancellationTokenSource.CreateLinkedTokenSource(cancellationToken);
+        var renewing = KeepLeasesAsync(inHand, stopRenewing.Token);
+        try
+        {
+            return await SendBatchAsync(batch, inHand, cancellationToken);
+        }
+        finally
+        {
+            await stopRenewing.CancelAsync();
+            await renewing;
+        }
+    }
+
+    private async Task<DispatchResult> SendBatchAsync(IReadOnlyList<OutboxEntry> batch, HashSet<long> inHand, CancellationToken cancellationToken)
+    {
         var down = new HashSet<string>(StringComparer.Ordinal);
         int sent = 0, failed = 0, deferred = 0;
         foreach (var entry in batch)
         {
             if (down.Contains(entry.MailingList))
             {
-                // Claimed but not tried: the lease brings it back once it runs out.
+                // Claimed but not tried: no longer renewed, its lease brings it back once it runs out.
                 deferred++;
+                Release(inHand, entry.Id);
                 continue;
             }
 
@@ -85,9 +119,57 @@ internal sealed class OutboxDispatcher(
 
                 await RecordFailureAsync(entry, ex, cancellationToken);
             }
+            finally
+            {
+                Release(inHand, entry.Id);
+            }
         }
 
         return new DispatchResult(sent, failed, deferred);
+    }
+
+    private static void Release(HashSet<long> inHand, long id)
+    {
+        lock (inHand)
+        {
+            inHand.Remove(id);
+        }
+    }
+
+    /// <summary>Renews the leases of the batch's messages not yet sent, failed or deferred, until the batch is done.</summary>
+    private async Task KeepLeasesAsync(HashSet<long> inHand, CancellationToken stop)
+    {
+        try
+        {
+            while (true)
+            {
+                await Task.Delay(options.RenewEvery, time, stop);
+                long[] ids;
+                lock (inHand)
+                {
+                    ids = [.. inHand];
+                }
+
+                if (ids.Length == 0)
+                {
+                    return;
+                }
+
+                try
+                {
+                    await store.RenewClaimsAsync(ids, options.ClaimOwner, time.GetUtcNow() + options.Lease, stop);
+                }
+                catch (Exception ex) when (ex is not OperationCanceledException)
+                {
+                    // The next renewal tries again; at worst a lease runs out and the message may be sent twice.
+                    logger.LogWarning(ex, "Could not renew the leases of {Count} alert messages in hand", ids.Length);
+                }
+            }
+        }
+        catch (OperationCanceledException) when (stop.IsCancellationRequested)
+        {
+            // The batch is done (or the dispatcher is stopping): nothing left to renew.
+        }
     }
 
     private async Task SendAsync(OutboxEntry entry, CancellationToken cancellationToken)

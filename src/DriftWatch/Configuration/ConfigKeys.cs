@@ -65,7 +65,7 @@ internal static class ConfigKeys
 
     public static readonly KeyLevel Logging = new("logging", ["format", "file", "level"]);
 
-    public static readonly KeyLevel Worker = new("worker", ["stop_grace"]);
+    public static readonly KeyLevel Worker = new("worker", ["stop_grace", "id"]);
 
     public static readonly KeyLevel Root = new(
         "root",

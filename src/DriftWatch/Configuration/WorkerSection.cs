@@ -8,6 +8,9 @@ internal static class WorkerSection
     /// <summary>A stop longer than this outlasts every supervisor's patience; it would end in SIGKILL anyway.</summary>
     public static readonly TimeSpan MaxStopGrace = TimeSpan.FromMinutes(10);
 
+    /// <summary>Room for a host name (255) and a suffix; it is stored with every claimed outbox row.</summary>
+    public const int MaxIdLength = 200;
+
     public static WorkerConfig Read(MappingReader? reader)
     {
         var defaults = new WorkerConfig();
@@ -17,7 +20,14 @@ internal static class WorkerSection
         }
 
         var grace = reader.Duration("stop_grace", TimeSpan.FromSeconds(1), MaxStopGrace) ?? defaults.StopGrace;
+        var id = reader.Text("id");
+        if (id is not null && (id.Length is 0 or > MaxIdLength || id.Any(char.IsControl) || id.Trim() != id))
+        {
+            reader.Error("id", $"must be 1 to {MaxIdLength} characters without control characters or surrounding spaces");
+            id = null;
+        }
+
         reader.Done();
-        return new WorkerConfig { StopGrace = grace };
+        return new WorkerConfig { StopGrace = grace, Id = id };
     }
 }

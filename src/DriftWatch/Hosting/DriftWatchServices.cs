@@ -16,7 +16,8 @@ namespace DriftWatch.Hosting;
 /// </summary>
 internal static class DriftWatchServices
 {
-    public static IServiceCollection AddDriftWatch(this IServiceCollection services, DriftWatchConfig config, TimeProvider time)
+    /// <param name="asWorker">True for <c>run</c>: outbox claims carry the worker's stable name (see <see cref="ClaimOwner"/>).</param>
+    public static IServiceCollection AddDriftWatch(this IServiceCollection services, DriftWatchConfig config, TimeProvider time, bool asWorker = false)
     {
         ArgumentNullException.ThrowIfNull(services);
         ArgumentNullException.ThrowIfNull(config);
@@ -40,7 +41,8 @@ internal static class DriftWatchServices
         services.AddHostedService<StoreMigrationService>();
 
         // Alerting: lifecycle and outbox in the store, digests composed per mailing list, channels deliver.
-        services.AddDriftWatchAlerting(config.Alerting);
+        var owner = asWorker ? ClaimOwner.OfWorker(config.Worker) : ClaimOwner.OfOneShot(config.Worker);
+        services.AddDriftWatchAlerting(config.Alerting, new OutboxOptions { ClaimOwner = owner });
         services.AddSingleton<AlertEvaluation>();
         return services;
     }

@@ -35,7 +35,7 @@ internal static class WorkerHost
         builder.Services.AddSingleton(sp => new StopGrace(config.Worker.StopGrace, sp.GetRequiredService<IHostApplicationLifetime>(), sp.GetRequiredService<ILogger<StopGrace>>()));
 
         var time = options.Time ?? TimeProvider.System;
-        builder.Services.AddDriftWatch(config, time);
+        builder.Services.AddDriftWatch(config, time, asWorker: true);
         builder.Services.AddQuartz(quartz =>
         {
             quartz.UseTimeProvider(time);

@@ -1,3 +1,4 @@
+using System.Data.Common;
 using DriftWatch.Alerts;
 using DriftWatch.Core.Alerting;
 using DriftWatch.Core.Configuration;
@@ -43,6 +44,8 @@ internal sealed class AlertEvaluation(
 
                 foreach (var cycle in SplitOnePerPair(batch))
                 {
+                    // The watermark moves in the transaction that stores the cycle's decision (or alone when the
+                    // cycle had nothing to decide): a crash before that commit re-reads the cycle, after it never.
                     var result = await EvaluateCycleAsync(cycle, cancellationToken);
                     if (result is not null)
                     {
@@ -50,7 +53,6 @@ internal sealed class AlertEvaluation(
                     }
 
                     watermark = cycle[^1].Id;
-                    await feed.SetWatermarkAsync(RunFeed.AlertsWatermarkKey, watermark, cancellationToken);
                 }
             }
         }
@@ -93,6 +95,7 @@ internal sealed class AlertEvaluation(
     {
         var outcomes = new List<PairOutcome>();
         var contexts = new Dictionary<string, AlertPairContext>(StringComparer.Ordinal);
+        var unreadable = 0;
         foreach (var (id, pairName) in cycle)
         {
             var pair = config.FindPair(pairName);
@@ -102,48 +105,93 @@ internal sealed class AlertEvaluation(
                 continue;
             }
 
-            var run = await history.GetRunAsync(id, includePoints: true, cancellationToken);
-            if (run is null)
+            try
             {
-                continue;
+                if (await ReadRunAsync(pair, id, cancellationToken) is { } read)
+                {
+                    outcomes.Add(read.Outcome);
+                    contexts[pair.Name] = read.Context;
+                }
             }
-
-            if (run.Status == RunStatus.Succeeded)
+            catch (Exception ex) when (IsUnreadable(ex))
             {
-                outcomes.Add(PairOutcome.Success(pair.Name, run.Id, run.Findings));
+                // Per run: one run that cannot be read is passed over (counted in worker_state and logged) and the
+                // other pairs of the cycle are still judged. Its pair's streaks go on as if the run had not happened.
+                unreadable++;
+                logger.LogWarning(ex, "Run {RunId} of {Pair} cannot be read for alerting and is passed over: {Reason}", id, pair.Name, ex.Message);
             }
-            else if (run.Status == RunStatus.Unmeasurable)
-            {
-                // Nothing was learnt about the relationship: counts toward check_failing, clears nothing.
-                var failures = await ConsecutiveFailuresAsync(pair, run, cancellationToken);
-                outcomes.Add(PairOutcome.Unmeasurable(pair.Name, run.Id, failures, run.Error ?? "no reason was recorded"));
-            }
-            else
-            {
-                var failures = await ConsecutiveFailuresAsync(pair, run, cancellationToken);
-                outcomes.Add(PairOutcome.Failure(pair.Name, run.Id, failures, run.Error ?? "the check failed"));
-            }
-
-            var baseline = await history.GetBaselineAsync(pair.Name, cancellationToken);
-            contexts[pair.Name] = new AlertPairContext(pair, run.Profile, run.Points, baseline?.Profile, baseline?.Points)
-            {
-                Window = run.SourceFigures,
-                JudgedAgainst = run.JudgedAgainst,
-            };
         }
 
+        var position = new FeedPosition(RunFeed.AlertsWatermarkKey, cycle[^1].Id, unreadable);
         if (outcomes.Count == 0)
         {
+            await feed.AdvanceAsync(position, cancellationToken);
             return null;
         }
 
-        var result = await processor.ProcessAsync(outcomes, contexts, cancellationToken);
+        var result = await processor.ProcessAsync(outcomes, contexts, position, cancellationToken);
         if (result.Queued.Count > 0)
         {
             logger.LogInformation("Alert cycle over {Runs} runs queued {Messages} messages", outcomes.Count, result.Queued.Count);
         }
 
         return result;
+    }
+
+    /// <summary>
+    /// A run whose stored data cannot be turned back into an outcome (a profile or figures that do not parse, an
+    /// unknown status), as opposed to a store that cannot be reached: that ends the evaluation, and the next one
+    /// starts again from the watermark.
+    /// </summary>
+    private static bool IsUnreadable(Exception ex) =>
+        ex is not (OperationCanceledException or DbException or IOException or TimeoutException or System.Net.Sockets.SocketException);
+
+    private async Task<(PairOutcome Outcome, AlertPairContext Context)?> ReadRunAsync(PairConfig pair, long id, CancellationToken cancellationToken)
+    {
+        var run = await history.GetRunAsync(id, includePoints: true, cancellationToken);
+        if (run is null)
+        {
+            return null;
+        }
+
+        PairOutcome outcome;
+        if (run.Status == RunStatus.Succeeded)
+        {
+            outcome = PairOutcome.Success(pair.Name, run.Id, run.Findings);
+        }
+        else if (run.Status == RunStatus.Unmeasurable)
+        {
+            // Nothing was learnt about the relationship: counts toward check_failing, clears nothing.
+            var failures = await ConsecutiveFailuresAsync(pair, run, cancellationToken);
+            outcome = PairOutcome.Unmeasurable(pair.Name, run.Id, failures, run.Error ?? "no reason was recorded");
+        }
+        else
+        {
+            var failures = await ConsecutiveFailuresAsync(pair, run, cancellationToken);
+            outcome = PairOutcome.Failure(pair.Name, run.Id, failures, run.Error ?? "the check failed");
+        }
+
+        var baseline = await ReadBaselineAsync(pair, cancellationToken);
+        var context = new AlertPairContext(pair, run.Profile, run.Points, baseline?.Profile, baseline?.Points)
+        {
+            Window = run.SourceFigures,
+            JudgedAgainst = run.JudgedAgainst,
+        };
+        return (outcome, context);
+    }
+
+    /// <summary>The baseline only illustrates the digest: one that cannot be read leaves the plot without it, not the alert.</summary>
+    private async Task<StoredBaseline?> ReadBaselineAsync(PairConfig pair, CancellationToken cancellationToken)
+    {
+        try
+        {
+            return await history.GetBaselineAsync(pair.Name, cancellationToken);
+        }
+        catch (Exception ex) when (IsUnreadable(ex))
+        {
+            logger.LogWarning(ex, "The baseline of {Pair} cannot be read; its alert digest shows the run alone: {Reason}", pair.Name, ex.Message);
+            return null;
+        }
     }
 
     /// <summary>

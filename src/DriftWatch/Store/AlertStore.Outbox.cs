@@ -13,23 +13,52 @@ internal sealed partial class AlertStore
         "next_attempt_at_ms AS NextAttemptAtMs, attempts AS Attempts, last_error AS LastError, sent_at_ms AS SentAtMs, " +
         "subject AS Subject, recipients AS Recipients";
 
-    public async Task<IReadOnlyList<OutboxEntry>> ClaimDueAsync(DateTimeOffset now, TimeSpan lease, int limit, CancellationToken cancellationToken)
+    public async Task<IReadOnlyList<OutboxEntry>> ClaimDueAsync(DateTimeOffset now, TimeSpan lease, string owner, int limit, CancellationToken cancellationToken)
     {
         ArgumentOutOfRangeException.ThrowIfLessThan(limit, 1);
+        ArgumentException.ThrowIfNullOrEmpty(owner);
         // One statement claims and returns: PostgreSQL skips rows another dispatcher has locked; SQLite has a
         // single writer, so the statement is atomic as it stands.
         var skipLocked = database.Dialect == StoreDialect.Postgres ? "FOR UPDATE SKIP LOCKED" : "";
         await using var connection = await database.OpenAsync(cancellationToken);
         var rows = await connection.QueryAsync<OutboxRow>(new CommandDefinition(
             $"""
-            UPDATE outbox SET next_attempt_at_ms = @leaseUntil
+            UPDATE outbox SET next_attempt_at_ms = @leaseUntil, claimed_by = @owner
             WHERE id IN (SELECT id FROM outbox WHERE sent_at_ms IS NULL AND next_attempt_at_ms <= @now
                          ORDER BY next_attempt_at_ms, id LIMIT @limit {skipLocked})
             RETURNING {OutboxColumns}, mime AS Mime
             """,
-            new { now = Ms(now), leaseUntil = Ms(now + lease), limit },
+            new { now = Ms(now), leaseUntil = Ms(now + lease), owner, limit },
             cancellationToken: cancellationToken));
         return [.. rows.OrderBy(r => r.CreatedAtMs).ThenBy(r => r.Id).Select(r => r.ToEntry())];
+    }
+
+    public async Task<int> RenewClaimsAsync(IReadOnlyCollection<long> ids, string owner, DateTimeOffset until, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(ids);
+        if (ids.Count == 0)
+        {
+            return 0;
+        }
+
+        // Dapper hands PostgreSQL the list as one array parameter and expands it into a list for SQLite.
+        var inIds = database.Dialect == StoreDialect.Postgres ? "id = ANY(@ids)" : "id IN @ids";
+        await using var connection = await database.OpenAsync(cancellationToken);
+        // Marking sent or failed clears claimed_by, so a renewal that lands after it cannot move a retry forward.
+        return await connection.ExecuteAsync(new CommandDefinition(
+            $"UPDATE outbox SET next_attempt_at_ms = @until WHERE {inIds} AND claimed_by = @owner AND sent_at_ms IS NULL",
+            new { ids = ids.ToArray(), owner, until = Ms(until) },
+            cancellationToken: cancellationToken));
+    }
+
+    public async Task<int> TakeBackClaimsAsync(string owner, DateTimeOffset now, CancellationToken cancellationToken)
+    {
+        ArgumentException.ThrowIfNullOrEmpty(owner);
+        await using var connection = await database.OpenAsync(cancellationToken);
+        return await connection.ExecuteAsync(new CommandDefinition(
+            "UPDATE outbox SET next_attempt_at_ms = @now, claimed_by = NULL WHERE claimed_by = @owner AND sent_at_ms IS NULL",
+            new { owner, now = Ms(now) },
+            cancellationToken: cancellationToken));
     }
 
     public async Task<IReadOnlyList<OutboxEntry>> ListOutboxAsync(bool unsentOnly, int limit, CancellationToken cancellationToken)
@@ -46,7 +75,7 @@ internal sealed partial class AlertStore
     {
         await using var connection = await database.OpenAsync(cancellationToken);
         await connection.ExecuteAsync(new CommandDefinition(
-            "UPDATE outbox SET sent_at_ms = @at, attempts = attempts + 1, last_error = NULL WHERE id = @id",
+            "UPDATE outbox SET sent_at_ms = @at, attempts = attempts + 1, last_error = NULL, claimed_by = NULL WHERE id = @id",
             new { id, at = Ms(at) },
             cancellationToken: cancellationToken));
     }
@@ -55,7 +84,7 @@ internal sealed partial class AlertStore
     {
         await using var connection = await database.OpenAsync(cancellationToken);
         await connection.ExecuteAsync(new CommandDefinition(
-            "UPDATE outbox SET attempts = attempts + 1, last_error = @error, next_attempt_at_ms = @next WHERE id = @id AND sent_at_ms IS NULL",
+            "UPDATE outbox SET attempts = attempts + 1, last_error = @error, next_attempt_at_ms = @next, claimed_by = NULL WHERE id = @id AND sent_at_ms IS NULL",
             new { id, error, next = Ms(nextAttemptAt) },
             cancellationToken: cancellationToken));
     }

@@ -32,7 +32,7 @@ internal sealed partial class AlertStore(IStoreDatabase database) : IAlertStore
         return snoozes.ToDictionary(s => s.Pair, s => s.Until, StringComparer.Ordinal);
     }
 
-    public async Task<IReadOnlyList<AlertState>> ApplyCycleAsync(CycleDecision decision, IReadOnlyList<OutboxMessage> outbox, CancellationToken cancellationToken)
+    public async Task<IReadOnlyList<AlertState>> ApplyCycleAsync(CycleDecision decision, IReadOnlyList<OutboxMessage> outbox, FeedPosition? position, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(decision);
         ArgumentNullException.ThrowIfNull(outbox);
@@ -49,6 +49,11 @@ internal sealed partial class AlertStore(IStoreDatabase database) : IAlertStore
         foreach (var message in outbox)
         {
             await InsertOutboxAsync(connection, transaction, message, cancellationToken);
+        }
+
+        if (position is not null)
+        {
+            await RunFeed.WriteAsync(connection, transaction, position, cancellationToken);
         }
 
         await transaction.CommitAsync(cancellationToken);

@@ -15,10 +15,13 @@ internal interface IAlertStore
     /// <summary>
     /// Writes the decision's alert changes and the outbox messages in ONE transaction, so an alert is never
     /// marked notified without its message queued, nor a message queued for a state that was not stored.
+    /// With a <paramref name="position"/>, the run feed's watermark is written in the same transaction: the runs
+    /// behind the decision are marked read exactly when the decision is stored, so a crash at any point neither
+    /// loses a decision nor makes one twice from the same runs.
     /// Returns <see cref="CycleDecision.Changes"/> in the same order, new ones with their ids. An outbox message
     /// whose Message-Id is already stored is skipped (the cycle was retried).
     /// </summary>
-    Task<IReadOnlyList<AlertState>> ApplyCycleAsync(CycleDecision decision, IReadOnlyList<OutboxMessage> outbox, CancellationToken cancellationToken);
+    Task<IReadOnlyList<AlertState>> ApplyCycleAsync(CycleDecision decision, IReadOnlyList<OutboxMessage> outbox, FeedPosition? position, CancellationToken cancellationToken);
 
     /// <summary>Open alerts and those cleared at or after <paramref name="clearedSince"/>, newest first.</summary>
     Task<IReadOnlyList<AlertState>> ListAlertsAsync(DateTimeOffset clearedSince, int limit, CancellationToken cancellationToken, string? pair = null);
@@ -36,10 +39,20 @@ internal interface IAlertStore
     Task<IReadOnlyList<PairSnooze>> ListSnoozesAsync(DateTimeOffset now, CancellationToken cancellationToken);
 
     /// <summary>
-    /// Unsent entries due at <paramref name="now"/>, oldest first, each leased until now + <paramref name="lease"/>
-    /// (its next attempt moves there) so a second dispatcher, here or on another instance, does not take it too.
+    /// Unsent entries due at <paramref name="now"/>, oldest first, each leased to <paramref name="owner"/> until
+    /// now + <paramref name="lease"/> (its next attempt moves there) so a second dispatcher, here or on another
+    /// instance, does not take it too.
     /// </summary>
-    Task<IReadOnlyList<OutboxEntry>> ClaimDueAsync(DateTimeOffset now, TimeSpan lease, int limit, CancellationToken cancellationToken);
+    Task<IReadOnlyList<OutboxEntry>> ClaimDueAsync(DateTimeOffset now, TimeSpan lease, string owner, int limit, CancellationToken cancellationToken);
+
+    /// <summary>Extends to <paramref name="until"/> the leases <paramref name="owner"/> still holds among <paramref name="ids"/> (sent or failed ones are no longer held).</summary>
+    Task<int> RenewClaimsAsync(IReadOnlyCollection<long> ids, string owner, DateTimeOffset until, CancellationToken cancellationToken);
+
+    /// <summary>
+    /// Makes every unsent entry leased to <paramref name="owner"/> due at <paramref name="now"/> and unclaimed: a
+    /// restarted worker takes back what it held when it died instead of waiting for the leases to run out.
+    /// </summary>
+    Task<int> TakeBackClaimsAsync(string owner, DateTimeOffset now, CancellationToken cancellationToken);
 
     /// <summary>Newest first, without the message bytes.</summary>
     Task<IReadOnlyList<OutboxEntry>> ListOutboxAsync(bool unsentOnly, int limit, CancellationToken cancellationToken);

@@ -1,3 +1,4 @@
+using System.Data.Common;
 using System.Globalization;
 using Dapper;
 
@@ -19,13 +20,40 @@ internal sealed class RunFeed(IStoreDatabase database)
         return value is null ? 0 : long.Parse(value, CultureInfo.InvariantCulture);
     }
 
-    public async Task SetWatermarkAsync(string key, long runId, CancellationToken cancellationToken)
+    /// <summary>Runs passed over as unreadable by the reader of <paramref name="key"/>, since the store was created.</summary>
+    public async Task<long> GetUnreadableCountAsync(string key, CancellationToken cancellationToken) =>
+        await GetWatermarkAsync(new FeedPosition(key, 0).UnreadableKey, cancellationToken);
+
+    /// <summary>Moves the position on when nothing else is to be stored with it (one statement, atomic on its own).</summary>
+    public async Task AdvanceAsync(FeedPosition position, CancellationToken cancellationToken)
     {
+        ArgumentNullException.ThrowIfNull(position);
         await using var connection = await database.OpenAsync(cancellationToken);
+        await using var transaction = await connection.BeginTransactionAsync(cancellationToken);
+        await WriteAsync(connection, transaction, position, cancellationToken);
+        await transaction.CommitAsync(cancellationToken);
+    }
+
+    /// <summary>Writes <paramref name="position"/> inside the caller's transaction (the alert store commits it with the cycle).</summary>
+    internal static async Task WriteAsync(DbConnection connection, DbTransaction transaction, FeedPosition position, CancellationToken cancellationToken)
+    {
         await connection.ExecuteAsync(new CommandDefinition(
             "INSERT INTO worker_state (key, value) VALUES (@key, @value) ON CONFLICT (key) DO UPDATE SET value = excluded.value",
-            new { key, value = runId.ToString(CultureInfo.InvariantCulture) },
+            new { key = position.Key, value = position.LastRunId.ToString(CultureInfo.InvariantCulture) },
+            transaction,
             cancellationToken: cancellationToken));
+        if (position.UnreadableRuns > 0)
+        {
+            // A running total kept as text like every worker_state value; CAST reads it back on both dialects.
+            await connection.ExecuteAsync(new CommandDefinition(
+                """
+                INSERT INTO worker_state (key, value) VALUES (@key, @value)
+                ON CONFLICT (key) DO UPDATE SET value = CAST(CAST(worker_state.value AS BIGINT) + @added AS TEXT)
+                """,
+                new { key = position.UnreadableKey, value = position.UnreadableRuns.ToString(CultureInfo.InvariantCulture), added = (long)position.UnreadableRuns },
+                transaction,
+                cancellationToken: cancellationToken));
+        }
     }
 
     /// <summary>Ids and pairs of runs recorded after <paramref name="afterId"/>, oldest first.</summary>

@@ -75,5 +75,6 @@ internal sealed class AlertHarness
         Processor.ProcessAsync(
             [.. checks.Select((c, i) => PairOutcome.Success(c.Pair.Name, i + 1, c.Findings))],
             checks.ToDictionary(c => c.Pair.Name, c => Context(c.Pair)),
+            null,
             CancellationToken.None);
 }

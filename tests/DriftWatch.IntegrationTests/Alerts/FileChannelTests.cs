@@ -43,7 +43,7 @@ public sealed class FileChannelTests : IDisposable
         var config = new AlertingConfig { MailingLists = [new MailingListConfig { Name = "archive", Channel = ChannelKind.File, Directory = folder }] };
         var harness = new AlertHarness(await _file.OpenAsync(), config);
         await harness.CycleAsync((Pair("weights"), [Critical(FindingKind.SignFlip, "flipped")]));
-        var entry = Assert.Single(await harness.Store.ClaimDueAsync(harness.Time.GetUtcNow(), TimeSpan.FromMinutes(5), 10, CancellationToken.None));
+        var entry = Assert.Single(await harness.Store.ClaimDueAsync(harness.Time.GetUtcNow(), TimeSpan.FromMinutes(5), harness.Options.ClaimOwner, 10, CancellationToken.None));
         using var parsed = MimeMessage.Load(new MemoryStream(entry.Mime!));
         var channel = new FileAlertChannel();
 

@@ -51,7 +51,7 @@ public sealed class PostgresDashboardTests(PostgresServer server) : IAsyncLifeti
         var profile = Profiler.Profile(sample, Thresholds.Default);
         var runId = await history.RecordRunAsync(new NewRun(Pair, Start, Start.AddSeconds(2), RunStatus.Succeeded, null, profile, [], null, sample), CancellationToken.None);
         var alert = new AlertState(0, Pair, FindingKind.Outliers, Severity.Warning, AlertStatus.Watching, 1, Start, Start, null, null, null, null, "a point far off the line", runId);
-        await alerts.ApplyCycleAsync(new CycleDecision(Start, [alert], []), [], CancellationToken.None);
+        await alerts.ApplyCycleAsync(new CycleDecision(Start, [alert], []), [], null, CancellationToken.None);
 
         await using var dashboard = await DashboardServer.StartAsync(
             new DashboardServerOptions(config, store, history, alerts)

@@ -68,6 +68,7 @@ public sealed class ConfigLoaderMappingTests : IDisposable
         Assert.Equal(Path.Combine(_dir.Path, "logs", "dw.log"), config.Logging.File);
         Assert.Equal("Debug", config.Logging.MinimumLevel);
         Assert.Equal(TimeSpan.FromSeconds(45), config.Worker.StopGrace);
+        Assert.Equal("monitor-1", config.Worker.Id);
     }
 
     [Fact]

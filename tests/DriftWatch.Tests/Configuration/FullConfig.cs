@@ -122,5 +122,6 @@ internal static class FullConfig
           level: debug
         worker:
           stop_grace: 45s
+          id: monitor-1
         """;
 }

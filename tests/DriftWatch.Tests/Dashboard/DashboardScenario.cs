@@ -150,7 +150,7 @@ internal sealed class DashboardScenario : IAsyncDisposable
             var open = await Alerts.GetOpenAlertsAsync(null, cancellationToken);
             var decision = AlertLifecycle.Evaluate(filtered, open, new Dictionary<string, DateTimeOffset>(), Config.Alerting, at + TimeSpan.FromMinutes(1));
             var messages = decision.Notifications.Select((n, i) => Message(n, at, i)).ToArray();
-            await Alerts.ApplyCycleAsync(decision, messages, cancellationToken);
+            await Alerts.ApplyCycleAsync(decision, messages, null, cancellationToken);
             OutboxCount += messages.Length;
         }
 
