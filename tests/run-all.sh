@@ -91,6 +91,12 @@ for project in tests/*/; do
   [ "${PIPESTATUS[0]}" = 0 ] || status=1
 done
 
+# Each failure in full (the filter above keeps the run readable but cuts the message itself).
+if grep -qE '^\s*Failed [A-Za-z]' "$out"; then
+  log "failures in detail:"
+  grep -E -A 14 '^\s*Failed [A-Za-z]' "$out" >&2
+fi
+
 passed=$(grep -Eo 'Passed: +[0-9]+' "$out" | awk '{s+=$2} END {print s+0}')
 failed=$(grep -Eo 'Failed: +[0-9]+' "$out" | awk '{s+=$2} END {print s+0}')
 [ "$failed" -gt 0 ] && status=1
