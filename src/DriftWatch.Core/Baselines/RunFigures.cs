@@ -51,6 +51,33 @@ public sealed record RunFigures(
     /// <summary>Share of the window's rows without a usable x or y.</summary>
     public double DropRate => Rows > 0 ? (double)(Rows - Used) / Rows : 0;
 
+    /// <summary>Mean of a figure over the runs that have it (finite values only); null when none has it.</summary>
+    public static double? Mean(IEnumerable<RunFigures> runs, Func<RunFigures, double?> figure)
+    {
+        var values = Values(runs, figure);
+        return values.Length == 0 ? null : values.Average();
+    }
+
+    /// <summary>Sample standard deviation (n − 1) of a figure between runs; null with fewer than two runs having it.</summary>
+    public static double? Spread(IEnumerable<RunFigures> runs, Func<RunFigures, double?> figure)
+    {
+        var values = Values(runs, figure);
+        if (values.Length < 2)
+        {
+            return null;
+        }
+
+        double mean = values.Average();
+        return Math.Sqrt(values.Sum(v => (v - mean) * (v - mean)) / (values.Length - 1));
+    }
+
+    private static double[] Values(IEnumerable<RunFigures> runs, Func<RunFigures, double?> figure)
+    {
+        ArgumentNullException.ThrowIfNull(runs);
+        ArgumentNullException.ThrowIfNull(figure);
+        return [.. runs.Select(figure).Where(v => v is { } d && double.IsFinite(d)).Select(v => v!.Value)];
+    }
+
     /// <summary>Sampling variance of <see cref="Slope"/>; null when undefined.</summary>
     public double? SlopeVariance => SlopeSe is { } se ? se * se : null;
 

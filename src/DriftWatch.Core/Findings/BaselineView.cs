@@ -18,11 +18,7 @@ internal sealed record BaselineView(IReadOnlyList<RunFigures> Runs, Relationship
         new(runs is { Count: > 0 } ? runs : [RunFigures.Of(0, default, pooled, null, t)], pooled, points, compareRowCounts);
 
     /// <summary>Mean of a figure over the runs that have it; null when none has it.</summary>
-    public double? Mean(Func<RunFigures, double?> figure)
-    {
-        var values = Runs.Select(figure).Where(v => v is { } d && double.IsFinite(d)).Select(v => v!.Value).ToArray();
-        return values.Length == 0 ? null : values.Average();
-    }
+    public double? Mean(Func<RunFigures, double?> figure) => RunFigures.Mean(Runs, figure);
 
     /// <summary>At least half of the runs have the property: it is the pair's normal state, not news.</summary>
     public bool Mostly(Func<RunFigures, bool> property) => Runs.Count(property) * 2 >= Runs.Count;

@@ -15,8 +15,9 @@ namespace DriftWatch.Core.Findings;
 /// </summary>
 internal static class ComparisonFindings
 {
+    /// <param name="withMarginals">Run the Kolmogorov–Smirnov tests of x and y (info only); the relaxed confirmation pass leaves them out.</param>
     public static List<Finding> Of(
-        RelationshipProfile cur, RunFigures now, PairedSample curSample, BaselineView bas, PairDeclaration declared, Thresholds t, ColumnNames c)
+        RelationshipProfile cur, RunFigures now, PairedSample curSample, BaselineView bas, PairDeclaration declared, Thresholds t, ColumnNames c, bool withMarginals = true)
     {
         var findings = new List<Finding>();
         bool bothDefined = cur.Shape != Shape.Undefined && bas.Pooled.Shape != Shape.Undefined;
@@ -33,7 +34,11 @@ internal static class ComparisonFindings
         }
 
         Rows(cur, now, bas, t, c, findings);
-        Marginals(cur, curSample, bas.Pooled, bas.Points, t, c, findings);
+        if (withMarginals)
+        {
+            Marginals(cur, curSample, bas.Pooled, bas.Points, t, c, findings);
+        }
+
         return findings;
     }
 
@@ -98,26 +103,26 @@ internal static class ComparisonFindings
         }
 
         double currentVar = 1.0 / (now.Used - 3);
-        var plain = RunSpread.Of(bas.Runs.Where(r => r.R is not null && r.Used > 3).Select(r => (Atanh(r.R!.Value), 1.0 / (r.Used - 3))), currentVar);
+        var plain = RunSpread.Of(bas.Runs.Where(r => r.R is not null && r.Used > 3).Select(r => (Correlation.FisherZ(r.R!.Value), 1.0 / (r.Used - 3))), currentVar);
         if (plain is not { } zPlain)
         {
             return;
         }
 
-        double pPlain = zPlain.TwoSidedP(Atanh(r1));
+        double pPlain = zPlain.TwoSidedP(Correlation.FisherZ(r1));
         double expected = r0;
         double pAdjusted = pPlain;
         if (bas.Mean(r => r.Slope) is { } b && bas.Mean(r => r.ResidualSd) is { } sigma && sigma > 0 && now.XSd is { } sx1)
         {
             var adjusted = RunSpread.Of(
                 bas.Runs.Where(r => r.R is not null && r.XSd is not null && r.Used > 3)
-                    .Select(r => (Atanh(r.R!.Value) - Atanh(RangeR(b, sigma, r.XSd!.Value)), 1.0 / (r.Used - 3))),
+                    .Select(r => (Correlation.FisherZ(r.R!.Value) - Correlation.FisherZ(RangeR(b, sigma, r.XSd!.Value)), 1.0 / (r.Used - 3))),
                 currentVar);
             if (adjusted is { } zAdjusted)
             {
-                double expectedZ = Atanh(RangeR(b, sigma, sx1)) + zAdjusted.Centre;
+                double expectedZ = Correlation.FisherZ(RangeR(b, sigma, sx1)) + zAdjusted.Centre;
                 expected = Math.Tanh(expectedZ);
-                pAdjusted = zAdjusted.TwoSidedP(Atanh(r1) - Atanh(RangeR(b, sigma, sx1)));
+                pAdjusted = zAdjusted.TwoSidedP(Correlation.FisherZ(r1) - Correlation.FisherZ(RangeR(b, sigma, sx1)));
             }
         }
 
@@ -390,5 +395,4 @@ internal static class ComparisonFindings
     /// <summary>The r of a line with slope <paramref name="b"/> and residual SD <paramref name="sigma"/> over x with SD <paramref name="sx"/>.</summary>
     private static double RangeR(double b, double sigma, double sx) => b * sx / Math.Sqrt((b * b * sx * sx) + (sigma * sigma));
 
-    private static double Atanh(double r) => Math.Atanh(Math.Clamp(r, -1 + 1e-15, 1 - 1e-15));
 }

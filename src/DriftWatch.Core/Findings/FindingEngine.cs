@@ -123,7 +123,7 @@ public static class FindingEngine
         if (baseline is not null && previous.Any(p => p.Severity >= Severity.Warning))
         {
             var relaxedThresholds = Confirmation.Relaxed(t);
-            var relaxed = ComparisonFindings.Of(current, RunFigures.Of(0, at, current, exact, relaxedThresholds), currentSample, baseline, declared, relaxedThresholds, names);
+            var relaxed = ComparisonFindings.Of(current, RunFigures.Of(0, at, current, exact, relaxedThresholds), currentSample, baseline, declared, relaxedThresholds, names, withMarginals: false);
             comparison.AddRange(Confirmation.Of(comparison, relaxed, previous));
         }
 

@@ -26,11 +26,10 @@ internal sealed record SampleAgreement(bool Disagrees, double P, double SampleSl
         // Sampling without replacement from the window: the variance shrinks by 1 − n/N (common practice).
         double fpc = Math.Sqrt(1 - (sample.NUsed / (double)exact.UsedCount));
         double zSlope = (bs - be) / (se * fpc);
-        double zR = (Atanh(rs) - Atanh(re)) * Math.Sqrt(sample.NUsed - 3) / fpc;
+        double zR = (Correlation.FisherZ(rs) - Correlation.FisherZ(re)) * Math.Sqrt(sample.NUsed - 3) / fpc;
         double p = Math.Min(1, 2 * Math.Min(ZTest.TwoSidedP(zSlope), ZTest.TwoSidedP(zR)));
         bool material = (be != 0 && Math.Abs((bs / be) - 1) >= t.MinSlopeRatioChange) || Math.Abs(rs - re) >= t.MinCorrelationChange;
         return new SampleAgreement(material && p < t.Alpha, p, bs, be, rs, re);
     }
 
-    private static double Atanh(double r) => Math.Atanh(Math.Clamp(r, -1 + 1e-15, 1 - 1e-15));
 }

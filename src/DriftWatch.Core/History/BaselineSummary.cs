@@ -24,11 +24,7 @@ public sealed record BaselineSummary(
     {
         ArgumentNullException.ThrowIfNull(baseline);
         IReadOnlyList<RunFigures> runs = baseline.Runs;
-        double? Mean(Func<RunFigures, double?> figure)
-        {
-            var values = runs.Select(figure).Where(v => v is { } d && double.IsFinite(d)).Select(v => v!.Value).ToArray();
-            return values.Length == 0 ? null : values.Average();
-        }
+        double? Mean(Func<RunFigures, double?> figure) => RunFigures.Mean(runs, figure);
 
         var p = baseline.Profile;
         return runs.Count == 0

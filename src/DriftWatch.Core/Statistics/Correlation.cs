@@ -58,6 +58,9 @@ internal static class Correlation
         return (Math.Tanh(z - half), Math.Tanh(z + half));
     }
 
+    /// <summary>Fisher's z = atanh r, with |r| held just below 1 so a perfect correlation stays finite.</summary>
+    public static double FisherZ(double r) => Math.Atanh(Math.Clamp(r, -MaxAbsRForZ, MaxAbsRForZ));
+
     /// <summary>Two-sided p of H0: ρ1 = ρ2 for independent samples, by Fisher's z (common practice).</summary>
     public static double? FisherTwoSampleP(double r1, int n1, double r2, int n2)
     {
@@ -66,8 +69,8 @@ internal static class Correlation
             return null;
         }
 
-        double z1 = Math.Atanh(Math.Clamp(r1, -MaxAbsRForZ, MaxAbsRForZ));
-        double z2 = Math.Atanh(Math.Clamp(r2, -MaxAbsRForZ, MaxAbsRForZ));
+        double z1 = FisherZ(r1);
+        double z2 = FisherZ(r2);
         double se = Math.Sqrt((1.0 / (n1 - 3)) + (1.0 / (n2 - 3)));
         return ZTest.TwoSidedP((z1 - z2) / se);
     }

@@ -52,25 +52,7 @@ internal static class BaselineRunsView
         console.Write(table);
     }
 
-    private static double? Mean(IReadOnlyList<RunFigures> runs, Func<RunFigures, double?> figure)
-    {
-        var values = Values(runs, figure);
-        return values.Length == 0 ? null : values.Average();
-    }
+    private static double? Mean(IReadOnlyList<RunFigures> runs, Func<RunFigures, double?> figure) => RunFigures.Mean(runs, figure);
 
-    /// <summary>The sample standard deviation between runs (n − 1); null with fewer than two runs.</summary>
-    private static double? Sd(IReadOnlyList<RunFigures> runs, Func<RunFigures, double?> figure)
-    {
-        var values = Values(runs, figure);
-        if (values.Length < 2)
-        {
-            return null;
-        }
-
-        var mean = values.Average();
-        return Math.Sqrt(values.Sum(v => (v - mean) * (v - mean)) / (values.Length - 1));
-    }
-
-    private static double[] Values(IReadOnlyList<RunFigures> runs, Func<RunFigures, double?> figure) =>
-        [.. runs.Select(figure).Where(v => v is { } d && double.IsFinite(d)).Select(v => v!.Value)];
+    private static double? Sd(IReadOnlyList<RunFigures> runs, Func<RunFigures, double?> figure) => RunFigures.Spread(runs, figure);
 }
