@@ -79,6 +79,12 @@ public sealed record SmtpConfig
 
     public SmtpSecurity Security { get; init; } = SmtpSecurity.StartTls;
 
+    /// <summary>
+    /// Full path of a PEM file of certificate authorities the server's certificate must chain to (a private CA);
+    /// null trusts the operating system's roots.
+    /// </summary>
+    public string? CaFile { get; init; }
+
     public string? User { get; init; }
 
     /// <summary>Resolved from ${ENV} or a file; a secret.</summary>

@@ -6,6 +6,9 @@ public sealed record WorkerConfig
     /// <summary>Long enough for a typical check to finish; shorter than a supervisor's usual 45 s stop timeout.</summary>
     public static readonly TimeSpan DefaultStopGrace = TimeSpan.FromSeconds(30);
 
+    /// <summary>Often enough that a confirmed alert leaves within a minute; rarely enough to cost nothing.</summary>
+    public static readonly TimeSpan DefaultAlertEvery = TimeSpan.FromSeconds(30);
+
     /// <summary>On SIGTERM or Ctrl+C, how long running checks may go on before they are cancelled.</summary>
     public TimeSpan StopGrace { get; init; } = DefaultStopGrace;
 
@@ -14,4 +17,7 @@ public sealed record WorkerConfig
     /// worker claims, so a restarted worker takes its own claims back at once. Null: the host name.
     /// </summary>
     public string? Id { get; init; }
+
+    /// <summary>How often the worker evaluates alerts over the new runs (and then wakes the outbox).</summary>
+    public TimeSpan AlertEvery { get; init; } = DefaultAlertEvery;
 }

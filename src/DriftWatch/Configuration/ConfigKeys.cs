@@ -48,7 +48,7 @@ internal static class ConfigKeys
     public static readonly KeyLevel MailingList = new(
         "mailing_list", ["name", "channel", "recipients", "from_severity", "tags", "include_plot", "directory"]);
 
-    public static readonly KeyLevel Smtp = new("smtp", ["host", "port", "security", "user", "password", "password_file", "from"]);
+    public static readonly KeyLevel Smtp = new("smtp", ["host", "port", "security", "ca_file", "user", "password", "password_file", "from"]);
 
     public static readonly KeyLevel Alerting = new(
         "alerting",
@@ -65,7 +65,7 @@ internal static class ConfigKeys
 
     public static readonly KeyLevel Logging = new("logging", ["format", "file", "level"]);
 
-    public static readonly KeyLevel Worker = new("worker", ["stop_grace", "id"]);
+    public static readonly KeyLevel Worker = new("worker", ["stop_grace", "id", "alert_every"]);
 
     public static readonly KeyLevel Root = new(
         "root",

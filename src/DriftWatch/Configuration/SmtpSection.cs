@@ -16,6 +16,7 @@ internal static class SmtpSection
         var port = reader.Int("port", 1, 65_535) ?? SmtpConfig.DefaultPort;
         var security = reader.Choice("security", ("starttls", SmtpSecurity.StartTls), ("tls", SmtpSecurity.Tls), ("none", SmtpSecurity.None))
             ?? SmtpSecurity.StartTls;
+        var caFile = ReadCaFile(reader, security);
         var user = reader.Text("user");
         var password = ReadPassword(reader);
         var from = Required(reader, "from", "the sender address, e.g. DriftWatch <driftwatch@example.org>");
@@ -37,7 +38,32 @@ internal static class SmtpSection
         reader.Done();
         return host is null || from is null
             ? null
-            : new SmtpConfig { Host = host, Port = port, Security = security, User = user, Password = password, From = from };
+            : new SmtpConfig { Host = host, Port = port, Security = security, CaFile = caFile, User = user, Password = password, From = from };
+    }
+
+    /// <summary>A PEM file of private certificate authorities, checked now so a wrong path never waits for the first alert.</summary>
+    private static string? ReadCaFile(MappingReader reader, SmtpSecurity security)
+    {
+        var file = reader.Text("ca_file");
+        if (file is null)
+        {
+            return null;
+        }
+
+        if (security == SmtpSecurity.None)
+        {
+            reader.Error("ca_file", "is given but security is none: without TLS no certificate is checked; use starttls or tls");
+            return null;
+        }
+
+        var path = reader.Context.ResolvePath(file);
+        if (TrustedAuthorities.Read(path, out var problem) is null)
+        {
+            reader.Error("ca_file", problem!);
+            return null;
+        }
+
+        return path;
     }
 
     private static string? ReadPassword(MappingReader reader)

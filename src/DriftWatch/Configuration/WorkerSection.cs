@@ -11,6 +11,12 @@ internal static class WorkerSection
     /// <summary>Room for a host name (255) and a suffix; it is stored with every claimed outbox row.</summary>
     public const int MaxIdLength = 200;
 
+    /// <summary>Cron schedules go down to a second; evaluating more often finds nothing new.</summary>
+    public static readonly TimeSpan MinAlertEvery = TimeSpan.FromSeconds(1);
+
+    /// <summary>Longer would hold a confirmed alert back for more than an hour.</summary>
+    public static readonly TimeSpan MaxAlertEvery = TimeSpan.FromHours(1);
+
     public static WorkerConfig Read(MappingReader? reader)
     {
         var defaults = new WorkerConfig();
@@ -27,7 +33,8 @@ internal static class WorkerSection
             id = null;
         }
 
+        var alertEvery = reader.Duration("alert_every", MinAlertEvery, MaxAlertEvery) ?? defaults.AlertEvery;
         reader.Done();
-        return new WorkerConfig { StopGrace = grace, Id = id };
+        return new WorkerConfig { StopGrace = grace, Id = id, AlertEvery = alertEvery };
     }
 }

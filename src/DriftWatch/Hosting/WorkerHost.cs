@@ -18,8 +18,8 @@ namespace DriftWatch.Hosting;
 /// </summary>
 internal static class WorkerHost
 {
-    /// <summary>How often alert evaluation looks for new runs.</summary>
-    public static readonly TimeSpan DefaultAlertEvery = TimeSpan.FromSeconds(30);
+    /// <summary>How often alert evaluation looks for new runs, unless <c>worker.alert_every</c> says otherwise.</summary>
+    public static readonly TimeSpan DefaultAlertEvery = WorkerConfig.DefaultAlertEvery;
 
     public static WebApplication Build(DriftWatchConfig config, WorkerHostOptions? options = null)
     {
@@ -39,7 +39,7 @@ internal static class WorkerHost
         builder.Services.AddQuartz(quartz =>
         {
             quartz.UseTimeProvider(time);
-            SchedulingSetup.AddPairSchedules(quartz, config, options.AlertEvery);
+            SchedulingSetup.AddPairSchedules(quartz, config, options.AlertEvery ?? config.Worker.AlertEvery);
         });
         builder.Services.AddQuartzHostedService(q =>
         {
@@ -79,7 +79,8 @@ internal sealed record WorkerHostOptions
 {
     public TimeProvider? Time { get; init; }
 
-    public TimeSpan AlertEvery { get; init; } = WorkerHost.DefaultAlertEvery;
+    /// <summary>Overrides <c>worker.alert_every</c>.</summary>
+    public TimeSpan? AlertEvery { get; init; }
 
     /// <summary>Overrides the dashboard's endpoint (tests bind to port 0).</summary>
     public IPEndPoint? DashboardEndPoint { get; init; }

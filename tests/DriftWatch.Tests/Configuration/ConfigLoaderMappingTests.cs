@@ -17,6 +17,7 @@ public sealed class ConfigLoaderMappingTests : IDisposable
     private DriftWatchConfig LoadFull()
     {
         _dir.Write(FullConfig.PasswordFileName, PgPassword + "\n");
+        _dir.Write(FullConfig.CaFileName, SelfSignedAuthorityPem());
         var result = ConfigText.Parse(FullConfig.Yaml, FullConfig.Env, _dir.Path);
         Assert.Empty(ConfigText.Lines(result));
         Assert.True(result.Ok);
@@ -69,6 +70,7 @@ public sealed class ConfigLoaderMappingTests : IDisposable
         Assert.Equal("Debug", config.Logging.MinimumLevel);
         Assert.Equal(TimeSpan.FromSeconds(45), config.Worker.StopGrace);
         Assert.Equal("monitor-1", config.Worker.Id);
+        Assert.Equal(TimeSpan.FromSeconds(10), config.Worker.AlertEvery);
     }
 
     [Fact]
@@ -86,6 +88,7 @@ public sealed class ConfigLoaderMappingTests : IDisposable
         Assert.Equal("mail.grocer.example", smtp.Host);
         Assert.Equal(465, smtp.Port);
         Assert.Equal(SmtpSecurity.Tls, smtp.Security);
+        Assert.Equal(Path.Combine(_dir.Path, FullConfig.CaFileName), smtp.CaFile);
         Assert.Equal("driftwatch", smtp.User);
         Assert.Equal("smtp-Secret-Value-7", smtp.Password);
         Assert.Equal("DriftWatch <dw@grocer.example>", smtp.From);
@@ -211,5 +214,16 @@ public sealed class ConfigLoaderMappingTests : IDisposable
         Assert.True(result.Ok, string.Join("\n", ConfigText.Lines(result)));
         Assert.Equal(file, result.Config!.FilePath);
         Assert.Equal(Path.Combine(_dir.Path, "shop.db"), new SqliteConnectionStringBuilder(result.Config.Sources[0].ConnectionString).DataSource);
+    }
+
+    /// <summary>A certificate authority made here (.NET's CertificateRequest), as the PEM text ca_file takes.</summary>
+    private static string SelfSignedAuthorityPem()
+    {
+        using var key = System.Security.Cryptography.ECDsa.Create();
+        var request = new System.Security.Cryptography.X509Certificates.CertificateRequest(
+            "CN=Grocer test authority", key, System.Security.Cryptography.HashAlgorithmName.SHA256);
+        request.CertificateExtensions.Add(new System.Security.Cryptography.X509Certificates.X509BasicConstraintsExtension(true, false, 0, true));
+        using var authority = request.CreateSelfSigned(DateTimeOffset.UtcNow.AddMinutes(-5), DateTimeOffset.UtcNow.AddDays(1));
+        return authority.ExportCertificatePem();
     }
 }

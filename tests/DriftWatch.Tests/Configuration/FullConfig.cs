@@ -5,6 +5,8 @@ internal static class FullConfig
 {
     public const string PasswordFileName = "pg-password.txt";
 
+    public const string CaFileName = "grocer-ca.pem";
+
     public static readonly Dictionary<string, string> Env = new(StringComparer.Ordinal)
     {
         ["PG_HOST"] = "db.internal",
@@ -101,6 +103,7 @@ internal static class FullConfig
             host: mail.grocer.example
             port: 465
             security: tls
+            ca_file: grocer-ca.pem
             user: driftwatch
             password: ${SMTP_PASSWORD}
             password_file:
@@ -123,5 +126,6 @@ internal static class FullConfig
         worker:
           stop_grace: 45s
           id: monitor-1
+          alert_every: 10s
         """;
 }

@@ -1,4 +1,6 @@
 using System.Net.Sockets;
+using System.Security.Cryptography.X509Certificates;
+using DriftWatch.Configuration;
 using DriftWatch.Core.Configuration;
 using MailKit;
 using MailKit.Net.Smtp;
@@ -12,6 +14,9 @@ internal sealed class SmtpAlertChannel(SmtpConfig? smtp, TimeSpan? timeout = nul
 {
     public static readonly TimeSpan DefaultTimeout = TimeSpan.FromSeconds(60);
 
+    // Read once: the loader has checked the file at start-up.
+    private readonly X509Certificate2Collection? _authorities = smtp?.CaFile is { } caFile ? TrustedAuthorities.Read(caFile, out _) : null;
+
     public ChannelKind Kind => ChannelKind.Smtp;
 
     public async Task SendAsync(OutboxEntry entry, MimeMessage message, MailingListConfig list, CancellationToken cancellationToken)
@@ -22,7 +27,14 @@ internal sealed class SmtpAlertChannel(SmtpConfig? smtp, TimeSpan? timeout = nul
             throw new ChannelUnavailableException($"Mailing list '{list.Name}' sends by SMTP but alerting.smtp is not configured.");
         }
 
-        using var client = new SmtpClient { Timeout = (int)(timeout ?? DefaultTimeout).TotalMilliseconds };
+        var certificates = new ServerCertificateCheck(smtp.Host, _authorities);
+        using var client = new SmtpClient
+        {
+            Timeout = (int)(timeout ?? DefaultTimeout).TotalMilliseconds,
+            ServerCertificateValidationCallback = certificates.Validate,
+            // A private authority (ca_file) seldom publishes revocation lists; with the system's roots MailKit checks them.
+            CheckCertificateRevocation = _authorities is null,
+        };
         try
         {
             await client.ConnectAsync(smtp.Host, smtp.Port, Security(smtp.Security), cancellationToken);
@@ -31,10 +43,19 @@ internal sealed class SmtpAlertChannel(SmtpConfig? smtp, TimeSpan? timeout = nul
                 await client.AuthenticateAsync(smtp.User, smtp.Password ?? "", cancellationToken);
             }
         }
-        catch (Exception ex) when (ex is SocketException or IOException or SmtpProtocolException or SmtpCommandException
-                                       or MailKit.Security.AuthenticationException or System.Security.Authentication.AuthenticationException or SslHandshakeException or TimeoutException)
+        catch (SslHandshakeException ex)
         {
-            throw new ChannelUnavailableException($"SMTP server {smtp} unavailable: {ex.Message}", ex);
+            throw new ChannelUnavailableException($"SMTP server {smtp} unavailable: TLS handshake failed: {certificates.Problem ?? FirstLine(ex.Message)}", ex);
+        }
+        catch (NotSupportedException ex) when (smtp.Security == SmtpSecurity.StartTls)
+        {
+            // MailKit refuses to go on in clear text when STARTTLS is required but not offered.
+            throw new ChannelUnavailableException($"SMTP server {smtp} unavailable: it does not offer STARTTLS, which security: starttls requires", ex);
+        }
+        catch (Exception ex) when (ex is SocketException or IOException or SmtpProtocolException or SmtpCommandException
+                                       or MailKit.Security.AuthenticationException or System.Security.Authentication.AuthenticationException or TimeoutException)
+        {
+            throw new ChannelUnavailableException($"SMTP server {smtp} unavailable: {FirstLine(ex.Message)}", ex);
         }
 
         try
@@ -60,6 +81,10 @@ internal sealed class SmtpAlertChannel(SmtpConfig? smtp, TimeSpan? timeout = nul
             // The message was accepted; a failed QUIT does not un-send it.
         }
     }
+
+    /// <summary>A failed attempt is logged as one line; the full exception waits for debug level.</summary>
+    private static string FirstLine(string message) =>
+        message.Split('\n', StringSplitOptions.TrimEntries | StringSplitOptions.RemoveEmptyEntries) is [var first, ..] ? first : message;
 
     private static SecureSocketOptions Security(SmtpSecurity security) => security switch
     {
