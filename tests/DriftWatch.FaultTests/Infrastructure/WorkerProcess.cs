@@ -12,6 +12,7 @@ public sealed class WorkerProcess : IDisposable
 {
     private readonly Process _process;
     private readonly ConcurrentQueue<string> _output = new();
+    private bool _disposed;
 
     private WorkerProcess(Process process)
     {
@@ -82,8 +83,15 @@ public sealed class WorkerProcess : IDisposable
 
     public string Transcript() => "--- worker output ---\n" + string.Join('\n', _output);
 
+    /// <summary>Kills the process if it still runs. Safe to call twice (the test and the bench both dispose it).</summary>
     public void Dispose()
     {
+        if (_disposed)
+        {
+            return;
+        }
+
+        _disposed = true;
         if (!_process.HasExited)
         {
             _process.Kill(entireProcessTree: true);
