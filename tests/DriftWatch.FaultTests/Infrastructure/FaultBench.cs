@@ -102,16 +102,26 @@ public sealed class FaultBench : IAsyncDisposable
     // ---- faults of the source ----
 
     /// <summary>The source database refuses every connection and its open sessions are ended: a source server gone.</summary>
-    public async Task StopSourceAsync()
+    public Task StopSourceAsync() => StopDatabaseAsync(Source);
+
+    public Task StartSourceAsync() => StartDatabaseAsync(Source);
+
+    /// <summary>
+    /// The same for any database of the bench; <see cref="Store"/> gives the store-down fault. The server itself
+    /// keeps running for the other tests, and the database keeps its data: only its connections are refused.
+    /// </summary>
+    public async Task StopDatabaseAsync(PostgresDatabase database)
     {
-        var name = new NpgsqlConnectionStringBuilder(Source.ConnectionString).Database!;
+        ArgumentNullException.ThrowIfNull(database);
+        var name = new NpgsqlConnectionStringBuilder(database.ConnectionString).Database!;
         await _server.ExecuteAdminAsync($"ALTER DATABASE {name} ALLOW_CONNECTIONS false");
         await _server.ExecuteAdminAsync($"SELECT pg_terminate_backend(pid) FROM pg_stat_activity WHERE datname = '{name}'");
     }
 
-    public async Task StartSourceAsync()
+    public async Task StartDatabaseAsync(PostgresDatabase database)
     {
-        var name = new NpgsqlConnectionStringBuilder(Source.ConnectionString).Database!;
+        ArgumentNullException.ThrowIfNull(database);
+        var name = new NpgsqlConnectionStringBuilder(database.ConnectionString).Database!;
         await _server.ExecuteAdminAsync($"ALTER DATABASE {name} ALLOW_CONNECTIONS true");
     }
 
@@ -215,7 +225,8 @@ public sealed class FaultBench : IAsyncDisposable
         }
 
         await Smtp.DisposeAsync();
-        await StartSourceAsync();
+        await StartDatabaseAsync(Source);
+        await StartDatabaseAsync(Store);
         await Source.DisposeAsync();
         await Store.DisposeAsync();
         Directory.Delete(Folder, recursive: true);
