@@ -15,9 +15,10 @@ internal static class PairChecks
             {
                 reader.Error("sample", $"method tablesample samples a table; a pair with a query needs auto, random or all{origin}");
             }
-            else if (source is { Kind: SourceKind.Sqlite })
+            else if (source is { Kind: SourceKind.Sqlite or SourceKind.MySql })
             {
-                reader.Error("sample", $"method tablesample needs a postgres source; '{source.Name}' is sqlite{origin}");
+                var kind = source.Kind == SourceKind.Sqlite ? "sqlite" : "mysql";
+                reader.Error("sample", $"method tablesample needs a postgres or duckdb source; '{source.Name}' is {kind}{origin}");
             }
         }
 
