@@ -13,6 +13,11 @@ internal static class DuckDbErrors
             return already;
         }
 
+        if (timedOut && exception is OperationCanceledException or DuckDBException)
+        {
+            return new SourceException(SourceFailure.Timeout, $"{subject}: stopped by the statement timeout.", exception);
+        }
+
         if (exception is not DuckDBException duck)
         {
             return new SourceException(opening ? SourceFailure.Unreachable : SourceFailure.QueryError, $"{subject}: {exception.GetType().Name}: {exception.Message}", exception);
@@ -25,18 +30,30 @@ internal static class DuckDbErrors
             return new SourceException(SourceFailure.Unreachable, $"{subject}: cannot open DuckDB database {database} ({text}).", duck);
         }
 
-        return duck.ErrorType switch
+        // DuckDB names the error class at the start of its message ("Catalog Error: …"); the error type is not always set.
+        bool Is(DuckDBErrorType type, string prefix) => duck.ErrorType == type || text.StartsWith(prefix, StringComparison.Ordinal);
+        if (Is(DuckDBErrorType.Catalog, "Catalog Error"))
         {
-            _ when timedOut => new SourceException(SourceFailure.Timeout, $"{subject}: stopped by the statement timeout.", duck),
-            DuckDBErrorType.Catalog => new SourceException(SourceFailure.MissingTable, $"{subject}: {text}", duck),
-            DuckDBErrorType.Binder when text.Contains("column", StringComparison.OrdinalIgnoreCase) && text.Contains("not found", StringComparison.OrdinalIgnoreCase) =>
-                new SourceException(SourceFailure.MissingColumn, $"{subject}: {text}", duck),
-            DuckDBErrorType.Io when text.Contains("No files found", StringComparison.OrdinalIgnoreCase) || text.Contains("No such file", StringComparison.OrdinalIgnoreCase) =>
-                new SourceException(SourceFailure.MissingTable, $"{subject}: {text}", duck),
-            DuckDBErrorType.Permission => new SourceException(SourceFailure.PermissionDenied, $"{subject}: {text}", duck),
-            _ when text.Contains("read-only mode", StringComparison.OrdinalIgnoreCase) =>
-                new SourceException(SourceFailure.QueryError, $"{subject}: the query tried to write, but DriftWatch opens DuckDB databases read-only ({text}).", duck),
-            _ => new SourceException(SourceFailure.QueryError, $"{subject}: query failed: {text}", duck),
-        };
+            return new SourceException(SourceFailure.MissingTable, $"{subject}: {text}", duck);
+        }
+
+        if (Is(DuckDBErrorType.Binder, "Binder Error") && text.Contains("column", StringComparison.OrdinalIgnoreCase) && text.Contains("not found", StringComparison.OrdinalIgnoreCase))
+        {
+            return new SourceException(SourceFailure.MissingColumn, $"{subject}: {text}", duck);
+        }
+
+        if (Is(DuckDBErrorType.Io, "IO Error") && (text.Contains("No files found", StringComparison.OrdinalIgnoreCase) || text.Contains("No such file", StringComparison.OrdinalIgnoreCase)))
+        {
+            return new SourceException(SourceFailure.MissingTable, $"{subject}: {text}", duck);
+        }
+
+        if (Is(DuckDBErrorType.Permission, "Permission Error"))
+        {
+            return new SourceException(SourceFailure.PermissionDenied, $"{subject}: {text}", duck);
+        }
+
+        return text.Contains("read-only mode", StringComparison.OrdinalIgnoreCase)
+            ? new SourceException(SourceFailure.QueryError, $"{subject}: the query tried to write, but DriftWatch opens DuckDB databases read-only ({text}).", duck)
+            : new SourceException(SourceFailure.QueryError, $"{subject}: query failed: {text}", duck);
     }
 }

@@ -177,9 +177,9 @@ internal sealed class DuckDbPairSource : IPairSource, IDisposable
                 {
                     return work(session, target, from);
                 }
-                catch (Exception e) when (e is not OperationCanceledException)
+                catch (Exception e) when (e is not OperationCanceledException || !cancellationToken.IsCancellationRequested)
                 {
-                    cancellationToken.ThrowIfCancellationRequested();
+                    // An interrupted statement surfaces as OperationCanceledException: ours when the timeout fired.
                     throw DuckDbErrors.Map(e, subject, _database, opening: false, session.TimedOut);
                 }
             }, cancellationToken);
@@ -323,8 +323,8 @@ internal sealed class DuckDbPairSource : IPairSource, IDisposable
         public void RequireSingleSelect(string sql)
         {
             using var command = _connection!.CreateCommand();
-            command.CommandText = "SELECT json_serialize_sql($sql)";
-            command.Parameters.Add(new DuckDBParameter("sql", sql));
+            // The function takes a constant only: a standard string literal, whose one escape is a doubled quote.
+            command.CommandText = "SELECT json_serialize_sql('" + sql.Replace("'", "''", StringComparison.Ordinal) + "')";
             var json = Convert.ToString(command.ExecuteScalar(), CultureInfo.InvariantCulture) ?? "{}";
             using var document = JsonDocument.Parse(json);
             var root = document.RootElement;

@@ -152,6 +152,7 @@ internal sealed class MySqlPairSource : IPairSource, IDisposable
             }
             catch (Exception e) when (e is not OperationCanceledException || !cancellationToken.IsCancellationRequested)
             {
+                await EndQuietlyAsync(connection);
                 throw MySqlErrors.Map(e, subject, _endpoint, opening: false);
             }
         }
@@ -163,6 +164,24 @@ internal sealed class MySqlPairSource : IPairSource, IDisposable
             }
 
             _gate.Release();
+        }
+    }
+
+    /// <summary>
+    /// Ends a failed check's transaction before the connection goes back to the pool: MySqlConnector resets a
+    /// pooled session only when it is next taken, and until then an open transaction would keep its metadata
+    /// locks, blocking DDL on the watched tables. A connection that cannot even roll back is dropped from the pool.
+    /// </summary>
+    private static async Task EndQuietlyAsync(MySqlConnection connection)
+    {
+        try
+        {
+            await using var rollback = new MySqlCommand("ROLLBACK", connection);
+            await rollback.ExecuteNonQueryAsync(CancellationToken.None);
+        }
+        catch (Exception e) when (e is MySqlException or InvalidOperationException or IOException)
+        {
+            MySqlConnection.ClearPool(connection);
         }
     }
 
