@@ -15,20 +15,28 @@ internal static class DuckDbTarget
         && (table.Contains('/', StringComparison.Ordinal) || table.Contains('*', StringComparison.Ordinal) || table.Contains('?', StringComparison.Ordinal)
             || table.EndsWith(".parquet", StringComparison.OrdinalIgnoreCase) || CsvEndings.Any(e => table.EndsWith(e, StringComparison.OrdinalIgnoreCase)));
 
-    /// <summary>The FROM item reading the files; an <see cref="ArgumentException"/> for a path DuckDB must not see.</summary>
-    public static string FileScan(string path)
+    /// <summary>Why a file path cannot be read, or null.</summary>
+    public static string? PathProblem(string path)
     {
         ArgumentNullException.ThrowIfNull(path);
         path = path.Trim();
         if (path.Length == 0 || path.Any(char.IsControl))
         {
-            throw new ArgumentException($"File path '{path}' is empty or contains a control character.", nameof(path));
+            return $"file path '{path}' is empty or contains a control character";
         }
 
-        if (path.Contains("://", StringComparison.Ordinal))
+        // Remote files would need the httpfs extension and network access; DriftWatch reads local files only.
+        return path.Contains("://", StringComparison.Ordinal) ? $"file path '{path}' is a URL; a duckdb source reads local files only" : null;
+    }
+
+    /// <summary>The FROM item reading the files; an <see cref="ArgumentException"/> for a path DuckDB must not see.</summary>
+    public static string FileScan(string path)
+    {
+        ArgumentNullException.ThrowIfNull(path);
+        path = path.Trim();
+        if (PathProblem(path) is { } problem)
         {
-            // Remote files would need the httpfs extension and network access; DriftWatch reads local files only.
-            throw new ArgumentException($"File path '{path}' is a URL; a duckdb source reads local files only.", nameof(path));
+            throw new ArgumentException(char.ToUpperInvariant(problem[0]) + problem[1..] + ".", nameof(path));
         }
 
         var literal = "'" + path.Replace("'", "''", StringComparison.Ordinal) + "'";
