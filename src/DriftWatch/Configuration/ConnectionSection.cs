@@ -6,10 +6,11 @@ namespace DriftWatch.Configuration;
 internal static class ConnectionSection
 {
     /// <summary>The resolved connection string, or null (reported). <paramref name="sqliteDefault"/> applies when the key is absent.</summary>
-    public static string? Read(MappingReader reader, bool postgres, string? sqliteDefault) => Read(reader, postgres ? SourceKind.Postgres : SourceKind.Sqlite, sqliteDefault);
+    public static string? Read(MappingReader reader, bool postgres, string? sqliteDefault) =>
+        Read(reader, postgres ? SourceKind.Postgres : SourceKind.Sqlite, sqliteDefault, "applies to postgres connections only");
 
     /// <summary>As above for a source of any kind: mysql takes a password file like postgres; duckdb needs no connection (files only).</summary>
-    public static string? Read(MappingReader reader, SourceKind kind, string? sqliteDefault)
+    public static string? Read(MappingReader reader, SourceKind kind, string? sqliteDefault, string passwordFileScope = "applies to postgres and mysql connections only")
     {
         var postgres = kind == SourceKind.Postgres;
         var takesPassword = kind is SourceKind.Postgres or SourceKind.MySql;
@@ -21,7 +22,7 @@ internal static class ConnectionSection
         {
             if (!takesPassword)
             {
-                reader.Error("password_file", "applies to postgres and mysql connections only");
+                reader.Error("password_file", passwordFileScope);
                 usable = false;
             }
             else
