@@ -4,6 +4,8 @@ public enum SourceKind
 {
     Postgres,
     Sqlite,
+    DuckDb,
+    MySql,
 }
 
 /// <summary>A named, read-only connection to the data being watched.</summary>
@@ -18,6 +20,9 @@ public sealed record SourceConfig
 
     /// <summary>Resolved connection string (environment expanded, password file applied). A secret: never log it.</summary>
     public required string ConnectionString { get; init; }
+
+    /// <summary>Where relative file paths of a duckdb source's pairs resolve (the configuration file's directory); null: the working directory.</summary>
+    public string? BaseDirectory { get; init; }
 
     public int MaxConcurrentQueries { get; init; } = DefaultMaxConcurrentQueries;
 

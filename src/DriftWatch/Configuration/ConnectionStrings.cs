@@ -1,4 +1,6 @@
+using System.Data.Common;
 using Microsoft.Data.Sqlite;
+using MySqlConnector;
 using Npgsql;
 
 namespace DriftWatch.Configuration;
@@ -82,6 +84,76 @@ internal static class ConnectionStrings
         if (!keepAsWritten)
         {
             builder.DataSource = Path.GetFullPath(source, baseDirectory);
+        }
+
+        return builder.ConnectionString;
+    }
+
+    /// <summary>The resolved MySqlConnector connection string, with <paramref name="password"/> set when given. It must name a Server.</summary>
+    public static string? MySql(string text, string? password, out string? problem)
+    {
+        problem = null;
+        MySqlConnectionStringBuilder builder;
+        try
+        {
+            builder = new MySqlConnectionStringBuilder(text);
+        }
+        catch (ArgumentException)
+        {
+            // MySqlConnector's messages may quote the value; say only what shape is wanted.
+            problem = "is not a valid MySQL connection string; write Key=value pairs separated by ';' such as Server=db;Database=shop;User ID=reader (value hidden)";
+            return null;
+        }
+
+        if (string.IsNullOrWhiteSpace(builder.Server))
+        {
+            problem = "is a MySQL connection string without Server (value hidden)";
+            return null;
+        }
+
+        if (password is not null)
+        {
+            if (!string.IsNullOrEmpty(builder.Password))
+            {
+                problem = "has a Password and password_file is given too; keep one of them (value hidden)";
+                return null;
+            }
+
+            builder.Password = password;
+        }
+
+        return builder.ConnectionString;
+    }
+
+    /// <summary>
+    /// A DuckDB database file (a path or Data Source=path, relative to <paramref name="baseDirectory"/>), or
+    /// :memory: for pairs that read Parquet/CSV files only. The adapter adds ACCESS_MODE=READ_ONLY itself.
+    /// </summary>
+    public static string? DuckDb(string text, string baseDirectory, out string? problem)
+    {
+        problem = null;
+        var builder = new DbConnectionStringBuilder();
+        try
+        {
+            builder.ConnectionString = text.Contains('=', StringComparison.Ordinal) ? text : $"Data Source={text}";
+        }
+        catch (ArgumentException)
+        {
+            problem = "is not a valid DuckDB connection string; write a file path or Data Source=path";
+            return null;
+        }
+
+        var key = builder.Keys.Cast<string>().FirstOrDefault(k => k.Replace(" ", string.Empty, StringComparison.Ordinal).Equals("DataSource", StringComparison.OrdinalIgnoreCase));
+        var source = key is null ? null : Convert.ToString(builder[key], System.Globalization.CultureInfo.InvariantCulture);
+        if (key is null || string.IsNullOrWhiteSpace(source))
+        {
+            problem = "names no DuckDB file; write a file path or Data Source=path (or leave connection out to read Parquet/CSV files only)";
+            return null;
+        }
+
+        if (source != ":memory:")
+        {
+            builder[key] = Path.GetFullPath(source, baseDirectory);
         }
 
         return builder.ConnectionString;

@@ -8,6 +8,11 @@ internal static class PairChecks
     public static void Check(MappingReader reader, PairConfig pair, IReadOnlyList<SourceConfig> sources, StoreConfig store)
     {
         var source = sources.FirstOrDefault(s => string.Equals(s.Name, pair.Source, StringComparison.Ordinal));
+        if (source is not null && source.Kind != SourceKind.DuckDb && Sources.DuckDb.DuckDbTarget.IsFile(pair.Table))
+        {
+            reader.Error("table", $"'{pair.Table}' names files; only a duckdb source reads Parquet or CSV files ('{source.Name}' is {source.Kind.ToString().ToLowerInvariant()})");
+        }
+
         if (pair.Sample.Method == SampleMethod.Tablesample)
         {
             var origin = reader.Has("sample") ? "" : " (the method comes from defaults.sample)";
@@ -15,9 +20,10 @@ internal static class PairChecks
             {
                 reader.Error("sample", $"method tablesample samples a table; a pair with a query needs auto, random or all{origin}");
             }
-            else if (source is { Kind: SourceKind.Sqlite })
+            else if (source is { Kind: SourceKind.Sqlite or SourceKind.MySql })
             {
-                reader.Error("sample", $"method tablesample needs a postgres source; '{source.Name}' is sqlite{origin}");
+                var kind = source.Kind == SourceKind.Sqlite ? "sqlite" : "mysql";
+                reader.Error("sample", $"method tablesample needs a postgres or duckdb source; '{source.Name}' is {kind}{origin}");
             }
         }
 

@@ -122,7 +122,16 @@ internal static class PairsSection
         var table = reader.Text("table");
         var where = reader.Text("where");
         var query = reader.Text("query");
-        if (table is not null && Identifiers.CheckTable(table) is { } tableProblem)
+        // A path or glob of Parquet/CSV files (for a duckdb source; PairChecks refuses it for other kinds).
+        if (table is not null && Sources.DuckDb.DuckDbTarget.IsFile(table))
+        {
+            if (Sources.DuckDb.DuckDbTarget.PathProblem(table) is { } pathProblem)
+            {
+                reader.Error("table", pathProblem);
+                table = null;
+            }
+        }
+        else if (table is not null && Identifiers.CheckTable(table) is { } tableProblem)
         {
             reader.Error("table", tableProblem);
             table = null;

@@ -8,7 +8,7 @@ internal static class SourcesSection
     public const int MaxConcurrentQueriesLimit = 64;
     public static readonly TimeSpan MaxStatementTimeout = TimeSpan.FromHours(24);
 
-    public static readonly (string Name, SourceKind Value)[] Kinds = [("postgres", SourceKind.Postgres), ("sqlite", SourceKind.Sqlite)];
+    public static readonly (string Name, SourceKind Value)[] Kinds = [("postgres", SourceKind.Postgres), ("sqlite", SourceKind.Sqlite), ("duckdb", SourceKind.DuckDb), ("mysql", SourceKind.MySql)];
 
     public static IReadOnlyList<SourceConfig> Read(MappingReader root, out IReadOnlySet<string> declared)
     {
@@ -26,10 +26,10 @@ internal static class SourcesSection
             var kind = reader.Choice("kind", Kinds);
             if (kind is null && !reader.Has("kind"))
             {
-                reader.Missing("kind", "is required: postgres or sqlite");
+                reader.Missing("kind", "is required: postgres, sqlite, duckdb or mysql");
             }
 
-            var connection = kind is null ? null : ConnectionSection.Read(reader, kind == SourceKind.Postgres, sqliteDefault: null);
+            var connection = kind is null ? null : ConnectionSection.Read(reader, kind.Value, sqliteDefault: null);
             if (kind is null)
             {
                 // Still mark them read; without a kind they cannot be checked.
@@ -50,6 +50,7 @@ internal static class SourcesSection
                 Name = name,
                 Kind = kind.Value,
                 ConnectionString = connection,
+                BaseDirectory = reader.Context.BaseDirectory,
                 MaxConcurrentQueries = maxQueries ?? SourceConfig.DefaultMaxConcurrentQueries,
                 StatementTimeout = timeout ?? SourceConfig.DefaultStatementTimeout,
             });

@@ -20,9 +20,11 @@ internal sealed record PairTarget(
     /// <summary>For messages: "table public.orders" or "query".</summary>
     public string Describe => Table is not null ? $"table {Table}" : "query";
 
-    public static PairTarget From(PairConfig pair)
+    /// <param name="quote">How a column name is quoted; standard SQL double quotes unless given (MySQL uses backticks).</param>
+    public static PairTarget From(PairConfig pair, Func<string, string>? quote = null)
     {
         ArgumentNullException.ThrowIfNull(pair);
+        quote ??= SqlIdentifier.Quote;
         try
         {
             QualifiedName? table = null;
@@ -45,9 +47,9 @@ internal sealed record PairTarget(
                 pair.Name,
                 table,
                 query,
-                SqlIdentifier.Quote(pair.X),
-                SqlIdentifier.Quote(pair.Y),
-                pair.Window is null ? null : SqlIdentifier.Quote(pair.Window.Column),
+                quote(pair.X),
+                quote(pair.Y),
+                pair.Window is null ? null : quote(pair.Window.Column),
                 string.IsNullOrWhiteSpace(pair.Where) ? null : pair.Where.Trim());
         }
         catch (ArgumentException e)

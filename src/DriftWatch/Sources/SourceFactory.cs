@@ -1,5 +1,7 @@
 using System.Collections.Concurrent;
 using DriftWatch.Core.Configuration;
+using DriftWatch.Sources.DuckDb;
+using DriftWatch.Sources.MySql;
 using DriftWatch.Sources.Postgres;
 using DriftWatch.Sources.Sqlite;
 
@@ -42,6 +44,8 @@ internal sealed class SourceFactory : ISourceFactory, IAsyncDisposable
     {
         SourceKind.Postgres => new PostgresPairSource(source),
         SourceKind.Sqlite => new SqlitePairSource(source),
+        SourceKind.DuckDb => new DuckDbPairSource(source),
+        SourceKind.MySql => new MySqlPairSource(source),
         _ => throw new ArgumentOutOfRangeException(nameof(source), source.Kind, $"Source '{source.Name}' has an unknown kind."),
     };
 }

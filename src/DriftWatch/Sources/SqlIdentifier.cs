@@ -19,6 +19,26 @@ internal static class SqlIdentifier
         return "\"" + name.Replace("\"", "\"\"", StringComparison.Ordinal) + "\"";
     }
 
+    /// <summary>
+    /// The MySQL/MariaDB form: backticks, embedded backticks doubled. MySQL allows 64 characters, and no
+    /// name may end with a space; both are refused here rather than left to the server.
+    /// </summary>
+    public static string Backtick(string name)
+    {
+        Validate(name);
+        if (name.Length > 64)
+        {
+            throw new ArgumentException($"Identifier '{name}' is longer than 64 characters.", nameof(name));
+        }
+
+        if (name.EndsWith(' '))
+        {
+            throw new ArgumentException($"Identifier '{name}' ends with a space, which MySQL does not allow.", nameof(name));
+        }
+
+        return "`" + name.Replace("`", "``", StringComparison.Ordinal) + "`";
+    }
+
     public static void Validate(string name)
     {
         ArgumentNullException.ThrowIfNull(name);
@@ -122,6 +142,9 @@ internal static class SqlIdentifier
 internal sealed record QualifiedName(string? Schema, string Name)
 {
     public string Quoted => Schema is null ? SqlIdentifier.Quote(Name) : SqlIdentifier.Quote(Schema) + "." + SqlIdentifier.Quote(Name);
+
+    /// <summary>The MySQL form, `database`.`table`.</summary>
+    public string Backticked => Schema is null ? SqlIdentifier.Backtick(Name) : SqlIdentifier.Backtick(Schema) + "." + SqlIdentifier.Backtick(Name);
 
     /// <summary>For messages: as the user would write it.</summary>
     public override string ToString() => Schema is null ? Name : Schema + "." + Name;

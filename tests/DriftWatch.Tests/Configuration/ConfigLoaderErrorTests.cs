@@ -219,7 +219,7 @@ public sealed class ConfigLoaderErrorTests
     public void Parse_TablesampleOnSqlite_IsAnError()
     {
         var errors = Errors(OnePair + "    sample:\n      method: tablesample\n");
-        Assert.Equal(["test.yaml:12:7: pairs[0].sample: method tablesample needs a postgres source; 'shop' is sqlite"], errors);
+        Assert.Equal(["test.yaml:12:7: pairs[0].sample: method tablesample needs a postgres or duckdb source; 'shop' is sqlite"], errors);
     }
 
     [Fact]
@@ -270,7 +270,7 @@ public sealed class ConfigLoaderErrorTests
         var yaml = """
             sources:
               - name: shop
-                kind: mysql
+                kind: oracle
                 connection: shop.db
             pairs:
               - name: a
@@ -287,7 +287,7 @@ public sealed class ConfigLoaderErrorTests
         var errors = Errors(yaml);
         Assert.Equal(
             [
-                "test.yaml:3:11: sources[0].kind: must be one of postgres, sqlite; was 'mysql'",
+                "test.yaml:3:11: sources[0].kind: must be one of postgres, sqlite, duckdb, mysql; was 'oracle'",
                 "test.yaml:12:13: pairs[0].sample.rows: must be at least 10, was 3",
                 "test.yaml:13:15: pairs[0].schedule: 'never' has 1 fields; write a Quartz cron expression (seconds minutes hours day-of-month month day-of-week [year], e.g. '0 0 * * * ?') or a five-field crontab line (e.g. '0 * * * *')",
                 "test.yaml:15:10: logging.level: must be one of verbose, debug, information, warning, error, fatal; was 'loud'",

@@ -105,7 +105,7 @@ public sealed class EnvAndSecretTests : IDisposable
     public void Parse_PasswordFileForSqlite_IsAnError()
     {
         var errors = ConfigText.Lines(ConfigText.Parse(ConfigText.SqliteSource + "\n    password_file: pw\n"));
-        Assert.Equal(["test.yaml:5:20: sources[0].password_file: applies to postgres connections only"], errors);
+        Assert.Equal(["test.yaml:5:20: sources[0].password_file: applies to postgres and mysql connections only"], errors);
     }
 
     /// <summary>Every way a secret can be wrong; none of the messages may quote it.</summary>
