@@ -4,8 +4,10 @@ namespace DriftWatch.Tests.Plots;
 
 public sealed class ScatterPlotRendererTests
 {
-    private static ScatterPlotInput Input(string x = "declared_kg", string y = "weighed_kg") =>
-        new(x, y, AnscombeData.Set1, AnscombeData.Fit, AnscombeData.Set3, AnscombeData.Fit, "parcel weights");
+    private static ScatterPlotModel Input(string x = "declared_kg", string y = "weighed_kg") =>
+        Model(new(x, y, AnscombeData.Set1, AnscombeData.Fit, AnscombeData.Set3, AnscombeData.Fit, "parcel weights"));
+
+    private static ScatterPlotModel Model(ScatterPlotInput input) => ScatterPlotModelBuilder.Build(input, Core.Statistics.Thresholds.Default);
 
     [Fact]
     public void RenderSvg_NamesBothAxesAfterTheColumns_AndLabelsTheLegend()
@@ -28,9 +30,11 @@ public sealed class ScatterPlotRendererTests
     {
         var svg = ScatterPlotRenderer.RenderSvg(Input());
 
-        // ScottPlot's SVG canvas writes each marker as an <ellipse>; 11 + 11 data points plus one legend symbol per series.
+        // ScottPlot's SVG canvas writes each circle marker as an <ellipse>: 11 baseline points, 10 current ones (set
+        // III's point at x = 13 is its outlier, drawn as a cross), one legend symbol per series.
         var ellipses = System.Text.RegularExpressions.Regex.Count(svg, "<ellipse ");
-        Assert.Equal(11 + 11 + 2, ellipses);
+        Assert.Equal(11 + 10 + 2, ellipses);
+        Assert.Contains("current outlying points (1)", SvgText.Of(svg));
     }
 
     [Fact]
@@ -57,7 +61,7 @@ public sealed class ScatterPlotRendererTests
     [Fact]
     public void RenderPng_WithoutAnyPoints_StillRendersAxesAndANote()
     {
-        var input = new ScatterPlotInput("first_col", "second_col", null, null, null, null);
+        var input = Model(new ScatterPlotInput("first_col", "second_col", null, null, null, null));
 
         var png = ScatterPlotRenderer.RenderPng(input);
         var svg = ScatterPlotRenderer.RenderSvg(input);
@@ -76,7 +80,7 @@ public sealed class ScatterPlotRendererTests
         var points = new Core.Profiling.PairedSample([.. Enumerable.Repeat(8.0, 10)], [6.58, 5.76, 7.71, 8.84, 8.47, 7.04, 5.25, 5.56, 7.91, 6.89]);
         var profile = Core.Profiling.Profiler.Profile(points, Core.Statistics.Thresholds.Default);
         Assert.Null(profile.Slope);
-        var input = new ScatterPlotInput("axle_count", "toll_eur", null, null, points, profile);
+        var input = Model(new ScatterPlotInput("axle_count", "toll_eur", null, null, points, profile));
 
         var png = ScatterPlotRenderer.RenderPng(input, 500, 320);
 

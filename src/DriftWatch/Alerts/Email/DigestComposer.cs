@@ -29,12 +29,13 @@ internal static class DigestComposer
             var context = group.First().Context;
             string? contentId = null;
             string? note = null;
+            string? caption = null;
             if (list.IncludePlot && HasPoints(context))
             {
                 if (plots < DigestOptions.MaxPlotsPerMessage)
                 {
                     contentId = MessageIds.ForPlot(messageId, context.Pair.Name, plots + 1);
-                    note = AttachPlot(builder, context, contentId, plots + 1);
+                    (note, caption) = AttachPlot(builder, context, contentId, plots + 1);
                     contentId = note is null ? contentId : null;
                     plots += note is null ? 1 : 0;
                 }
@@ -44,7 +45,7 @@ internal static class DigestComposer
                 }
             }
 
-            sections.Add(new PairSection(context, [.. group], contentId, note, DashboardUrl(options.PublicUrl, context.Pair.Name)));
+            sections.Add(new PairSection(context, [.. group], contentId, note, DashboardUrl(options.PublicUrl, context.Pair.Name), caption));
         }
 
         var model = new DigestModel(subject, list.Name, at, sections, plots > 0);
@@ -92,25 +93,32 @@ internal static class DigestComposer
     private static bool HasPoints(AlertPairContext context) =>
         context.CurrentPoints is { UsedCount: > 0 } || context.BaselinePoints is { UsedCount: > 0 };
 
-    /// <summary>Renders and links the plot; returns null on success, else a note for the reader (the message still goes out).</summary>
-    private static string? AttachPlot(BodyBuilder builder, AlertPairContext context, string contentId, int index)
+    /// <summary>
+    /// Renders and links the plot; returns its caption on success, else a note for the reader (the message still goes
+    /// out). The picture is built by the same plot model as the dashboard's.
+    /// </summary>
+    private static (string? Note, string? Caption) AttachPlot(BodyBuilder builder, AlertPairContext context, string contentId, int index)
     {
         byte[] png;
+        string caption;
         try
         {
-            png = ScatterPlotRenderer.RenderPng(new ScatterPlotInput(
-                context.Pair.X, context.Pair.Y, context.BaselinePoints, context.Baseline, context.CurrentPoints, context.Current));
+            var model = ScatterPlotModelBuilder.Build(
+                new ScatterPlotInput(context.Pair.X, context.Pair.Y, context.BaselinePoints, context.Baseline, context.CurrentPoints, context.Current),
+                context.Pair.Thresholds);
+            png = ScatterPlotRenderer.RenderPng(model);
+            caption = model.Caption;
         }
         catch (Exception ex) when (ex is not OperationCanceledException)
         {
             // A plot is an illustration; failing to draw it must not hold back the alert.
-            return $"Plot left out: it could not be drawn ({ex.GetType().Name}).";
+            return ($"Plot left out: it could not be drawn ({ex.GetType().Name}).", null);
         }
 
         var fileName = string.Create(System.Globalization.CultureInfo.InvariantCulture, $"plot-{index}.png");
         var image = builder.LinkedResources.Add(fileName, png, new ContentType("image", "png"));
         image.ContentId = contentId;
         image.ContentDisposition = new ContentDisposition(ContentDisposition.Inline) { FileName = fileName };
-        return null;
+        return (null, caption);
     }
 }

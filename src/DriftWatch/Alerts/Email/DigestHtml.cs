@@ -72,8 +72,12 @@ internal static class DigestHtml
         {
             var pair = section.Context.Pair;
             html.Append("<img src=\"cid:").Append(H(cid)).Append("\" width=\"640\" style=\"display:block;max-width:100%;height:auto;border:1px solid #E5E7EB;margin:0 0 8px;\" alt=\"")
-                .Append(H($"Scatter plot of {pair.Y} against {pair.X}: baseline points grey, current points in colour, both fitted lines"))
+                .Append(H($"Scatter plot of {pair.Y} against {pair.X}: baseline points grey, current points in colour, both fits"))
                 .Append("\">\n");
+            if (section.PlotCaption is { } caption)
+            {
+                html.Append("<p style=\"font-size:13px;color:#4B5563;margin:0 0 8px;max-width:640px;\">").Append(H(caption)).Append("</p>\n");
+            }
         }
         else if (section.PlotNote is { } note)
         {

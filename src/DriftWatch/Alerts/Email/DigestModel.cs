@@ -11,14 +11,15 @@ internal sealed record DigestModel(
 /// <summary>
 /// One pair in a digest: its alerts (worst first), one table and at most one plot, however many of its kinds
 /// changed. <paramref name="PlotContentId"/> is the inline image's Content-Id; <paramref name="PlotNote"/> says
-/// why a plot is missing where one was wanted.
+/// why a plot is missing where one was wanted; <paramref name="PlotCaption"/> is the sentence under the plot.
 /// </summary>
 internal sealed record PairSection(
     AlertPairContext Context,
     IReadOnlyList<DigestItem> Items,
     string? PlotContentId,
     string? PlotNote,
-    string? DashboardUrl)
+    string? DashboardUrl,
+    string? PlotCaption = null)
 {
     public string Pair => Context.Pair.Name;
 

@@ -12,7 +12,7 @@ internal sealed class DashboardReader(DriftWatchConfig config, IHistoryStore his
 {
     public const int DefaultPageSize = 50;
 
-    /// <summary>Runs drawn on the r-over-time chart.</summary>
+    /// <summary>Runs drawn on the trend charts.</summary>
     public const int TrendRuns = 500;
 
     /// <summary>Recent runs searched for one that still has its sampled points (older ones lose them to retention).</summary>

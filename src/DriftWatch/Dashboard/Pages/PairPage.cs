@@ -200,39 +200,47 @@ internal static class PairPage
     private static void Plots(Html html, PairDetail detail)
     {
         html.Open("section", ("class", "plots"), ("aria-label", "Plots"));
+        var scatter = PairPlots.ScatterModel(detail);
         html.Open("figure", ("class", "card plot-card"), ("id", "scatter"));
         html.Open("figcaption");
         html.Element("h2", "Latest sample over the baseline");
-        html.Element("p", ScatterCaption(detail), ("class", "muted"));
+        html.Element("p", ScatterSource(detail), ("class", "muted"));
         html.Close("figcaption");
-        html.Raw(PairPlots.Scatter(detail));
+        html.Raw(PairPlots.Scatter(scatter));
+        html.Element("p", scatter.Caption, ("class", "plot-caption"));
         html.Close("figure");
+        html.Close("section");
 
-        html.Open("figure", ("class", "card plot-card"), ("id", "trend"));
-        html.Open("figcaption");
-        html.Element("h2", "Pearson r over time");
-        html.Element("p", TrendCaption(detail), ("class", "muted"));
-        html.Close("figcaption");
-        html.Raw(PairPlots.Trend(detail));
-        html.Close("figure");
+        var trends = PairPlots.TrendModels(detail);
+        var shown = detail.Trend.Count(r => r.Status == RunStatus.Succeeded);
+        html.Open("section", ("class", "card trends"), ("id", "trend"), ("aria-labelledby", "trend-title"));
+        html.Element("h2", "Figures over time", ("id", "trend-title"));
+        html.Element(
+            "p",
+            $"The latest {shown.ToString("N0", CultureInfo.InvariantCulture)} successful runs. Shaded band: the range the baseline's runs make normal; "
+            + "markers: runs with findings, by worst severity (▲ warning, ◆ critical, ○ info). Read the charts together: which figure stepped tells what changed.",
+            ("class", "muted"));
+        html.Open("div", ("class", "trend-grid"));
+        foreach (var trend in trends)
+        {
+            html.Open("figure", ("class", "trend-chart"), ("id", trend.Id));
+            html.Raw(PairPlots.Trend(trend));
+            html.Element("figcaption", trend.Caption, ("class", "plot-caption"));
+            html.Close("figure");
+        }
+
+        html.Close("div");
         html.Close("section");
     }
 
-    private static string ScatterCaption(PairDetail detail)
+    private static string ScatterSource(PairDetail detail)
     {
         var current = detail.PlotRun is { } run
-            ? $"Coloured: the run of {Display.Time(run.StartedAt)}"
+            ? $"The run of {Display.Time(run.StartedAt)}"
             : "No recent run still has its sampled points";
         var baseline = detail.Summary.Baseline is { } b
-            ? $"grey: the baseline's reservoir of {Display.Count(b.Points.UsedCount)} points from {Display.Count(b.RunCount)} runs"
+            ? $"the baseline's reservoir of {Display.Count(b.Points.UsedCount)} points from {Display.Count(b.RunCount)} runs"
             : "no baseline yet";
-        return $"{current}; {baseline}. Lines: least-squares fits (grey: baseline, teal: current).";
-    }
-
-    private static string TrendCaption(PairDetail detail)
-    {
-        var shown = detail.Trend.Count(r => r.Status == RunStatus.Succeeded);
-        var band = detail.Summary.Baseline is null ? "No baseline yet, so no band." : "Shaded: the baseline's 95% confidence interval for r (Fisher z).";
-        return $"The latest {shown.ToString("N0", CultureInfo.InvariantCulture)} successful runs. {band} Markers: runs with findings, by worst severity.";
+        return $"{current} over {baseline}.";
     }
 }

@@ -1,40 +1,52 @@
-using DriftWatch.Core.History;
+using DriftWatch.Core.Statistics;
 using DriftWatch.Dashboard.Data;
 using DriftWatch.Plots;
 
 namespace DriftWatch.Dashboard.Pages;
 
-/// <summary>The pair page's two pictures, rendered on the server as inline SVG by the shared plot renderers.</summary>
+/// <summary>The pair page's pictures, built by the shared plot models and rendered on the server as inline SVG.</summary>
 internal static class PairPlots
 {
-    /// <summary>The newest sample over the baseline's reservoir, both fitted lines, axes named after the columns.</summary>
-    public static string Scatter(PairDetail detail)
+    public const int ScatterWidth = 640;
+    public const int ScatterHeight = 480;
+
+    private static Thresholds Thresholds(PairDetail detail) => detail.Summary.Config?.Thresholds ?? Core.Statistics.Thresholds.Default;
+
+    /// <summary>The newest sample over the baseline's reservoir, as the alert mail shows it.</summary>
+    public static ScatterPlotModel ScatterModel(PairDetail detail)
     {
         ArgumentNullException.ThrowIfNull(detail);
         var summary = detail.Summary;
-        var input = new ScatterPlotInput(
-            summary.Config?.X ?? "x",
-            summary.Config?.Y ?? "y",
-            summary.Baseline?.Points,
-            summary.Baseline?.Profile,
-            detail.PlotRun?.Points,
-            detail.PlotRun?.Profile);
-        var svg = ScatterPlotRenderer.RenderSvg(input, 640, 440);
-        return InlineSvg.Prepare(svg, "scatter-", $"Scatter plot of {input.YName} against {input.XName}: latest sample over the baseline sample");
+        return ScatterPlotModelBuilder.Build(
+            new ScatterPlotInput(
+                summary.Config?.X ?? "x",
+                summary.Config?.Y ?? "y",
+                summary.Baseline?.Points,
+                summary.Baseline?.Profile,
+                detail.PlotRun?.Points,
+                detail.PlotRun?.Profile),
+            Thresholds(detail));
     }
 
-    /// <summary>Pearson r of every recent run, the baseline's r inside its 95% confidence band, severity markers on runs with findings.</summary>
-    public static string Trend(PairDetail detail)
+    public static string Scatter(ScatterPlotModel model)
+    {
+        ArgumentNullException.ThrowIfNull(model);
+        var svg = ScatterPlotRenderer.RenderSvg(model, ScatterWidth, ScatterHeight);
+        return InlineSvg.Prepare(svg, "scatter-", $"Scatter plot of {model.YName} against {model.XName}: latest sample over the baseline sample");
+    }
+
+    /// <summary>r, slope, intercept, outlier rate and usable rows per recent run, each with the baseline's normal range.</summary>
+    public static IReadOnlyList<TrendChartModel> TrendModels(PairDetail detail)
     {
         ArgumentNullException.ThrowIfNull(detail);
-        var points = detail.Trend
-            .Where(r => r.Status == RunStatus.Succeeded)
-            .Select(r => new CorrelationHistoryPoint(r.StartedAt, r.Profile?.PearsonR, r.WorstSeverity))
-            .ToArray();
-        var baseline = detail.Summary.Baseline?.Profile is { PearsonR: { } r, PearsonCiLow: { } low, PearsonCiHigh: { } high }
-            ? new CorrelationBaselineBand(r, low, high)
-            : null;
-        var svg = CorrelationHistoryChart.RenderSvg(points, baseline, null, 760, 360);
-        return InlineSvg.Prepare(svg, "trend-", "Pearson r per run over time with the baseline's confidence band");
+        var config = detail.Summary.Config;
+        return TrendChartsBuilder.Build(detail.Trend, detail.Summary.Baseline, Thresholds(detail), config?.Y ?? "y", config?.X ?? "x");
+    }
+
+    public static string Trend(TrendChartModel model)
+    {
+        ArgumentNullException.ThrowIfNull(model);
+        var svg = TrendChartRenderer.RenderSvg(model);
+        return InlineSvg.Prepare(svg, model.Id + "-", $"{model.Title} per run over time with the baseline's normal range", "plot trend-plot");
     }
 }

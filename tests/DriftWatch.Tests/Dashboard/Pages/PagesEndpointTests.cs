@@ -117,14 +117,14 @@ public sealed class PagesEndpointTests(DashboardFixture fixture)
         Assert.Contains("became perfect", html, StringComparison.Ordinal);
         Assert.Contains("gross_amount became an exact function of net_amount", html, StringComparison.Ordinal);
 
-        // Two server-rendered SVG plots with their axis labels and legends.
-        Assert.Equal(2, PageHtml.Count(html, "<svg "));
+        // Server-rendered SVG plots with their axis labels and legends: the scatter and five trend charts.
+        Assert.Equal(1 + 5, PageHtml.Count(html, "<svg "));
         Assert.Matches(">net_amount</text>", html);
         Assert.Matches(">gross_amount</text>", html);
         Assert.Matches(">Pearson r</text>", html);
         Assert.Matches(">baseline points \\(n = 1,500\\)</text>", html);
         Assert.Matches(">current points \\(n = 300\\)</text>", html);
-        // Ids are prefixed per plot, so the two plots never share a clip path.
+        // Ids are prefixed per plot, so no two plots share a clip path.
         var ids = Regex.Matches(html, " id=\"((?:scatter|trend)-[^\"]+)\"").Select(m => m.Groups[1].Value).ToArray();
         Assert.NotEmpty(ids);
         Assert.Equal(ids.Length, ids.Distinct().Count());

@@ -1,0 +1,46 @@
+namespace DriftWatch.Plots;
+
+/// <summary>
+/// A fitted equation as a reader writes it: "y = 8613 − 34.48·x", "y = 2.1 + 0.8·x − 0.013·x²". Each
+/// coefficient to <see cref="PlotNumbers.Digits"/> significant digits, the sign joined into the operator,
+/// a term that rounds to zero left out (the constant too, unless it is the only term).
+/// </summary>
+internal static class FitEquation
+{
+    public static string Line(double intercept, double slope) => Polynomial([intercept, slope]);
+
+    public static string Quadratic(double a, double b, double c) => Polynomial([a, b, c]);
+
+    private static string Polynomial(double[] coefficients)
+    {
+        var text = new System.Text.StringBuilder("y =");
+        var first = true;
+        for (var power = 0; power < coefficients.Length; power++)
+        {
+            var value = PlotNumbers.Round(coefficients[power], PlotNumbers.Digits);
+            if (value == 0)
+            {
+                continue;
+            }
+
+            var magnitude = Math.Abs(value);
+            var number = PlotNumbers.Sig(magnitude);
+            var term = power switch
+            {
+                0 => number,
+                _ => (number == "1" ? string.Empty : number + "·") + (power == 1 ? "x" : "x²"),
+            };
+            if (first)
+            {
+                text.Append(' ').Append(value < 0 ? PlotNumbers.Minus.ToString() : string.Empty).Append(term);
+                first = false;
+            }
+            else
+            {
+                text.Append(value < 0 ? " − " : " + ").Append(term);
+            }
+        }
+
+        return first ? "y = 0" : text.ToString();
+    }
+}
