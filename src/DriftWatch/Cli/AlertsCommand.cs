@@ -3,6 +3,7 @@ using System.Globalization;
 using System.Text.Json.Serialization;
 using DriftWatch.Configuration;
 using DriftWatch.Core.Alerting;
+using DriftWatch.Hosting;
 using DriftWatch.Output;
 using DriftWatch.Store;
 using Microsoft.Extensions.DependencyInjection;

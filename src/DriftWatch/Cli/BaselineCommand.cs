@@ -1,6 +1,7 @@
 using System.CommandLine;
 using System.Globalization;
 using DriftWatch.Core.History;
+using DriftWatch.Hosting;
 using DriftWatch.Monitoring;
 using DriftWatch.Output;
 using DriftWatch.Store;

@@ -1,6 +1,7 @@
 using System.CommandLine;
 using DriftWatch.Core.Findings;
 using DriftWatch.Core.History;
+using DriftWatch.Hosting;
 using DriftWatch.Monitoring;
 using DriftWatch.Output;
 using Microsoft.Extensions.DependencyInjection;

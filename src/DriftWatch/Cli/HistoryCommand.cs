@@ -2,6 +2,7 @@ using System.CommandLine;
 using System.Globalization;
 using System.Text.Json.Serialization;
 using DriftWatch.Core.History;
+using DriftWatch.Hosting;
 using DriftWatch.Output;
 using DriftWatch.Store;
 using Microsoft.Extensions.DependencyInjection;

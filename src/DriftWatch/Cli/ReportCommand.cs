@@ -3,6 +3,7 @@ using System.Data.Common;
 using DriftWatch.Configuration;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Dashboard.Export;
+using DriftWatch.Output;
 using DriftWatch.Store;
 using Microsoft.Data.Sqlite;
 

@@ -1,10 +1,10 @@
 using System.Globalization;
-using DriftWatch.Cli;
 using DriftWatch.Configuration;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Dashboard.Export;
 using DriftWatch.Hosting;
 using DriftWatch.Monitoring;
+using DriftWatch.Output;
 using DriftWatch.Store;
 using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Logging;

@@ -1,6 +1,6 @@
 using System.Data.Common;
 using Dapper;
-using DriftWatch.Alerts;
+using DriftWatch.Core.Alerting;
 using static DriftWatch.Store.AlertStoreText;
 
 namespace DriftWatch.Store;

@@ -1,6 +1,5 @@
 using System.Data.Common;
 using Dapper;
-using DriftWatch.Alerts;
 using DriftWatch.Core.Alerting;
 using static DriftWatch.Store.AlertStoreText;
 

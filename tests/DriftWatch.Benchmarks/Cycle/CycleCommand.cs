@@ -1,6 +1,7 @@
 using DriftWatch.Cli;
 using DriftWatch.Configuration;
 using DriftWatch.Core.History;
+using DriftWatch.Hosting;
 using DriftWatch.Monitoring;
 using Microsoft.Extensions.DependencyInjection;
 using Npgsql;

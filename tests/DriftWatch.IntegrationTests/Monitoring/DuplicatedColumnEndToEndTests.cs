@@ -1,7 +1,8 @@
 using DriftWatch.Cli;
 using DriftWatch.Configuration;
 using DriftWatch.Core.Findings;
-using DriftWatch.IntegrationTests.Alerts;
+using DriftWatch.Hosting;
+using DriftWatch.IntegrationTests.Alerting;
 using DriftWatch.IntegrationTests.Infrastructure;
 using DriftWatch.Monitoring;
 using Microsoft.Extensions.DependencyInjection;

@@ -1,4 +1,5 @@
-using DriftWatch.Alerts;
+using DriftWatch.Alerting.Evaluation;
+using DriftWatch.Alerting.Outbox;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Findings;
 using DriftWatch.Core.History;

@@ -1,6 +1,5 @@
 using System.Globalization;
 using System.Text;
-using DriftWatch.Alerts;
 using DriftWatch.Core.Alerting;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Findings;

@@ -1,4 +1,4 @@
-using DriftWatch.Alerts;
+using DriftWatch.Alerting.Outbox;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.History;
 using DriftWatch.Demo;

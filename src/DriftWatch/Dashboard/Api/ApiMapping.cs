@@ -1,4 +1,3 @@
-using DriftWatch.Alerts;
 using DriftWatch.Core.Alerting;
 using DriftWatch.Core.History;
 using DriftWatch.Dashboard.Data;
