@@ -22,11 +22,12 @@ internal static class AlertingServiceCollectionExtensions
         services.AddSingleton(config);
         services.AddSingleton(options ?? new OutboxOptions());
         services.TryAddSingleton<IAlertStore, AlertStore>();
+        services.TryAddSingleton<IOutboxStore, OutboxStore>();
         services.AddSingleton<OutboxSignal>();
         services.AddSingleton<IAlertChannel>(_ => new SmtpAlertChannel(config.Smtp));
         services.AddSingleton<IAlertChannel, FileAlertChannel>();
         services.AddSingleton(sp => new OutboxDispatcher(
-            sp.GetRequiredService<IAlertStore>(),
+            sp.GetRequiredService<IOutboxStore>(),
             sp.GetServices<IAlertChannel>(),
             config,
             sp.GetRequiredService<OutboxOptions>(),

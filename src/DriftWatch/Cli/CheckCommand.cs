@@ -44,7 +44,7 @@ internal static class CheckCommand
                 return ExitCodes.Healthy;
             }
 
-            await using var services = await CliServices.StartAsync(loaded, parse.GetValue(verbose), ct);
+            await using var services = await OneShotServices.StartAsync(loaded, parse.GetValue(verbose), ct);
             var progress = new ImmediateProgress<PairCheckResult>(r => console.Error.WriteLine(
                 r.Status switch
                 {

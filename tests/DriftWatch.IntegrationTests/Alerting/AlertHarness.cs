@@ -25,11 +25,12 @@ internal sealed class AlertHarness
     public AlertHarness(IStoreDatabase database, AlertingConfig config, OutboxOptions? options = null, ILogger<OutboxDispatcher>? dispatcherLog = null)
     {
         Store = new AlertStore(database);
+        Outbox = new OutboxStore(database);
         Config = config;
         Options = options ?? new OutboxOptions();
         Processor = new AlertCycleProcessor(Store, config, Time, new OutboxSignal(), NullLogger<AlertCycleProcessor>.Instance);
         Dispatcher = new OutboxDispatcher(
-            Store,
+            Outbox,
             [new SmtpAlertChannel(config.Smtp, TimeSpan.FromSeconds(10)), new FileAlertChannel()],
             config,
             Options,
@@ -41,6 +42,8 @@ internal sealed class AlertHarness
     public FakeTimeProvider Time { get; } = new(Start);
 
     public AlertStore Store { get; }
+
+    public OutboxStore Outbox { get; }
 
     public AlertingConfig Config { get; }
 

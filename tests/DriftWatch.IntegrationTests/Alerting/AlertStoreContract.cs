@@ -50,7 +50,9 @@ public abstract class AlertStoreContract
     [Fact]
     public async Task ApplyCycle_OutboxInsertFails_StoresNoAlertChangeEither()
     {
-        var store = new AlertStore(await DatabaseAsync());
+        var database = await DatabaseAsync();
+        var store = new AlertStore(database);
+        var outbox = new OutboxStore(database);
         var alert = State("orders", FindingKind.BecamePerfect, Severity.Critical, AlertStatus.Confirmed) with { LastNotifiedAt = T0 };
         // A NULL subject violates the outbox's NOT NULL constraint inside the transaction.
         var broken = new OutboxMessage("dw-broken@driftwatch.local", "team", ChannelKind.Smtp, T0, null!, [], [1, 2, 3]);
@@ -58,7 +60,7 @@ public abstract class AlertStoreContract
         await Assert.ThrowsAnyAsync<Exception>(() => store.ApplyCycleAsync(new CycleDecision(T0, [alert], [new AlertNotification(alert, NotificationKind.Confirmed)]), [broken], null, CancellationToken.None));
 
         Assert.Empty(await store.GetOpenAlertsAsync(null, CancellationToken.None));
-        Assert.Empty(await store.ListOutboxAsync(false, 10, CancellationToken.None));
+        Assert.Empty(await outbox.ListOutboxAsync(false, 10, CancellationToken.None));
     }
 
     [Fact]
@@ -76,13 +78,15 @@ public abstract class AlertStoreContract
     [Fact]
     public async Task ApplyCycle_MessageIdAlreadyQueued_IsNotQueuedTwice()
     {
-        var store = new AlertStore(await DatabaseAsync());
+        var database = await DatabaseAsync();
+        var store = new AlertStore(database);
+        var outbox = new OutboxStore(database);
         var message = Message("dw-once@driftwatch.local");
 
         await store.ApplyCycleAsync(CycleDecision.Empty(T0), [message], null, CancellationToken.None);
         await store.ApplyCycleAsync(CycleDecision.Empty(T0), [message], null, CancellationToken.None);
 
-        var entry = Assert.Single(await store.ListOutboxAsync(false, 10, CancellationToken.None));
+        var entry = Assert.Single(await outbox.ListOutboxAsync(false, 10, CancellationToken.None));
         Assert.Equal(message.MessageId, entry.MessageId);
         Assert.Equal(["a@example.org", "b@example.org"], entry.Recipients);
         Assert.Equal(ChannelKind.Smtp, entry.Channel);
@@ -129,12 +133,13 @@ public abstract class AlertStoreContract
     {
         var database = await DatabaseAsync();
         var store = new AlertStore(database);
-        var other = new AlertStore(database);
+        var outbox = new OutboxStore(database);
+        var other = new OutboxStore(database);
         await store.ApplyCycleAsync(CycleDecision.Empty(T0), [Message("dw-1@driftwatch.local"), Message("dw-2@driftwatch.local")], null, CancellationToken.None);
 
-        var first = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), "worker-a", 10, CancellationToken.None);
+        var first = await outbox.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), "worker-a", 10, CancellationToken.None);
         var during = await other.ClaimDueAsync(T0.AddMinutes(4), TimeSpan.FromMinutes(5), "worker-b", 10, CancellationToken.None);
-        await store.MarkSentAsync(first[0].Id, T0.AddMinutes(1), CancellationToken.None);
+        await outbox.MarkSentAsync(first[0].Id, T0.AddMinutes(1), CancellationToken.None);
         var after = await other.ClaimDueAsync(T0.AddMinutes(5), TimeSpan.FromMinutes(5), "worker-b", 10, CancellationToken.None);
 
         Assert.Equal(["dw-1@driftwatch.local", "dw-2@driftwatch.local"], first.Select(e => e.MessageId));
@@ -154,7 +159,7 @@ public abstract class AlertStoreContract
         var claimers = Enumerable.Range(0, 4).Select(async _ =>
         {
             var mine = new List<string>();
-            var own = new AlertStore(await ReopenAsync());
+            var own = new OutboxStore(await ReopenAsync());
             while (await own.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), "worker-a", 3, CancellationToken.None) is { Count: > 0 } batch)
             {
                 mine.AddRange(batch.Select(e => e.MessageId));
@@ -171,30 +176,34 @@ public abstract class AlertStoreContract
     [Fact]
     public async Task MarkFailed_RecordsTheErrorAndTheNextAttempt()
     {
-        var store = new AlertStore(await DatabaseAsync());
+        var database = await DatabaseAsync();
+        var store = new AlertStore(database);
+        var outbox = new OutboxStore(database);
         await store.ApplyCycleAsync(CycleDecision.Empty(T0), [Message("dw-f@driftwatch.local")], null, CancellationToken.None);
-        var entry = Assert.Single(await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), "worker-a", 10, CancellationToken.None));
+        var entry = Assert.Single(await outbox.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), "worker-a", 10, CancellationToken.None));
 
-        await store.MarkFailedAsync(entry.Id, "connection refused", T0.AddMinutes(2), CancellationToken.None);
+        await outbox.MarkFailedAsync(entry.Id, "connection refused", T0.AddMinutes(2), CancellationToken.None);
 
-        var stored = Assert.Single(await store.ListOutboxAsync(true, 10, CancellationToken.None));
+        var stored = Assert.Single(await outbox.ListOutboxAsync(true, 10, CancellationToken.None));
         Assert.Equal((1, "connection refused", T0.AddMinutes(2)), (stored.Attempts, stored.LastError, stored.NextAttemptAt));
-        Assert.Empty(await store.ClaimDueAsync(T0.AddMinutes(1), TimeSpan.FromMinutes(5), "worker-a", 10, CancellationToken.None));
-        Assert.Single(await store.ClaimDueAsync(T0.AddMinutes(2), TimeSpan.FromMinutes(5), "worker-a", 10, CancellationToken.None));
+        Assert.Empty(await outbox.ClaimDueAsync(T0.AddMinutes(1), TimeSpan.FromMinutes(5), "worker-a", 10, CancellationToken.None));
+        Assert.Single(await outbox.ClaimDueAsync(T0.AddMinutes(2), TimeSpan.FromMinutes(5), "worker-a", 10, CancellationToken.None));
     }
 
     [Fact]
     public async Task TakeBackClaims_OwnClaimsAreDueAtOnce_OtherOwnersAndFailedOnesKeepTheirTime()
     {
-        var store = new AlertStore(await DatabaseAsync());
+        var database = await DatabaseAsync();
+        var store = new AlertStore(database);
+        var outbox = new OutboxStore(database);
         await store.ApplyCycleAsync(CycleDecision.Empty(T0), [Message("dw-a@driftwatch.local"), Message("dw-b@driftwatch.local"), Message("dw-f@driftwatch.local")], null, CancellationToken.None);
-        var a = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(1), "worker-a", 1, CancellationToken.None);
-        var b = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(1), "worker-b", 1, CancellationToken.None);
-        var f = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(1), "worker-a", 1, CancellationToken.None);
-        await store.MarkFailedAsync(f[0].Id, "connection refused", T0.AddMinutes(10), CancellationToken.None);
+        var a = await outbox.ClaimDueAsync(T0, TimeSpan.FromMinutes(1), "worker-a", 1, CancellationToken.None);
+        var b = await outbox.ClaimDueAsync(T0, TimeSpan.FromMinutes(1), "worker-b", 1, CancellationToken.None);
+        var f = await outbox.ClaimDueAsync(T0, TimeSpan.FromMinutes(1), "worker-a", 1, CancellationToken.None);
+        await outbox.MarkFailedAsync(f[0].Id, "connection refused", T0.AddMinutes(10), CancellationToken.None);
 
-        var taken = await store.TakeBackClaimsAsync("worker-a", T0.AddSeconds(5), CancellationToken.None);
-        var due = await store.ClaimDueAsync(T0.AddSeconds(5), TimeSpan.FromMinutes(1), "worker-c", 10, CancellationToken.None);
+        var taken = await outbox.TakeBackClaimsAsync("worker-a", T0.AddSeconds(5), CancellationToken.None);
+        var due = await outbox.ClaimDueAsync(T0.AddSeconds(5), TimeSpan.FromMinutes(1), "worker-c", 10, CancellationToken.None);
 
         // Only worker-a's message still in hand: worker-b may be sending its own, the failed one waits for its retry.
         Assert.Equal(1, taken);
@@ -205,16 +214,18 @@ public abstract class AlertStoreContract
     [Fact]
     public async Task RenewClaims_ExtendsLeasesStillHeld_NeverARetryAlreadyScheduled()
     {
-        var store = new AlertStore(await DatabaseAsync());
+        var database = await DatabaseAsync();
+        var store = new AlertStore(database);
+        var outbox = new OutboxStore(database);
         await store.ApplyCycleAsync(CycleDecision.Empty(T0), [Message("dw-1@driftwatch.local"), Message("dw-2@driftwatch.local")], null, CancellationToken.None);
-        var claimed = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(1), "worker-a", 10, CancellationToken.None);
-        await store.MarkFailedAsync(claimed[1].Id, "connection refused", T0.AddMinutes(10), CancellationToken.None);
+        var claimed = await outbox.ClaimDueAsync(T0, TimeSpan.FromMinutes(1), "worker-a", 10, CancellationToken.None);
+        await outbox.MarkFailedAsync(claimed[1].Id, "connection refused", T0.AddMinutes(10), CancellationToken.None);
 
-        var renewed = await store.RenewClaimsAsync([claimed[0].Id, claimed[1].Id], "worker-a", T0.AddSeconds(80), CancellationToken.None);
-        var byOther = await store.RenewClaimsAsync([claimed[0].Id], "worker-b", T0.AddMinutes(30), CancellationToken.None);
+        var renewed = await outbox.RenewClaimsAsync([claimed[0].Id, claimed[1].Id], "worker-a", T0.AddSeconds(80), CancellationToken.None);
+        var byOther = await outbox.RenewClaimsAsync([claimed[0].Id], "worker-b", T0.AddMinutes(30), CancellationToken.None);
 
         Assert.Equal((1, 0), (renewed, byOther));
-        var stored = (await store.ListOutboxAsync(true, 10, CancellationToken.None)).ToDictionary(e => e.MessageId, e => e.NextAttemptAt);
+        var stored = (await outbox.ListOutboxAsync(true, 10, CancellationToken.None)).ToDictionary(e => e.MessageId, e => e.NextAttemptAt);
         Assert.Equal(T0.AddSeconds(80), stored["dw-1@driftwatch.local"]);
         Assert.Equal(T0.AddMinutes(10), stored["dw-2@driftwatch.local"]);
     }
@@ -222,19 +233,22 @@ public abstract class AlertStoreContract
     [Fact]
     public async Task Prune_DropsOldSentMessagesAndOldClearedAlerts_KeepsTheRest()
     {
-        var store = new AlertStore(await DatabaseAsync());
+        var database = await DatabaseAsync();
+        var store = new AlertStore(database);
+        var outbox = new OutboxStore(database);
         var clearedOld = State("a", FindingKind.SignFlip, Severity.Critical, AlertStatus.Cleared) with { ClearedAt = T0 };
         var clearedNew = State("b", FindingKind.SignFlip, Severity.Critical, AlertStatus.Cleared) with { ClearedAt = T0.AddDays(10) };
         var open = State("c", FindingKind.SignFlip, Severity.Critical, AlertStatus.Confirmed);
         await store.ApplyCycleAsync(new CycleDecision(T0, [clearedOld, clearedNew, open], []), [Message("dw-old@driftwatch.local"), Message("dw-new@driftwatch.local"), Message("dw-unsent@driftwatch.local")], null, CancellationToken.None);
-        var entries = await store.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), "worker-a", 10, CancellationToken.None);
-        await store.MarkSentAsync(entries.Single(e => e.MessageId == "dw-old@driftwatch.local").Id, T0, CancellationToken.None);
-        await store.MarkSentAsync(entries.Single(e => e.MessageId == "dw-new@driftwatch.local").Id, T0.AddDays(10), CancellationToken.None);
+        var entries = await outbox.ClaimDueAsync(T0, TimeSpan.FromMinutes(5), "worker-a", 10, CancellationToken.None);
+        await outbox.MarkSentAsync(entries.Single(e => e.MessageId == "dw-old@driftwatch.local").Id, T0, CancellationToken.None);
+        await outbox.MarkSentAsync(entries.Single(e => e.MessageId == "dw-new@driftwatch.local").Id, T0.AddDays(10), CancellationToken.None);
 
-        var pruned = await store.PruneAsync(sentBefore: T0.AddDays(5), clearedBefore: T0.AddDays(5), CancellationToken.None);
+        var prunedSent = await outbox.PruneSentAsync(T0.AddDays(5), CancellationToken.None);
+        var prunedCleared = await store.PruneClearedAsync(T0.AddDays(5), CancellationToken.None);
 
-        Assert.Equal(2, pruned);
-        Assert.Equal(["dw-new@driftwatch.local", "dw-unsent@driftwatch.local"], (await store.ListOutboxAsync(false, 10, CancellationToken.None)).Select(e => e.MessageId).Order(StringComparer.Ordinal));
+        Assert.Equal((1, 1), (prunedSent, prunedCleared));
+        Assert.Equal(["dw-new@driftwatch.local", "dw-unsent@driftwatch.local"], (await outbox.ListOutboxAsync(false, 10, CancellationToken.None)).Select(e => e.MessageId).Order(StringComparer.Ordinal));
         Assert.Equal(["b", "c"], (await store.ListAlertsAsync(T0.AddYears(-1), 10, CancellationToken.None)).Select(a => a.Pair).Order(StringComparer.Ordinal));
     }
 
@@ -275,7 +289,7 @@ public abstract class AlertStoreContract
         var confirmed = Assert.Single(second.Saved);
         Assert.Equal((AlertStatus.Confirmed, 2, first.Saved[0].Id), (confirmed.Status, confirmed.ConsecutiveRuns, confirmed.Id));
         Assert.Single(second.Queued);
-        Assert.Single(await after.Store.ListOutboxAsync(true, 10, CancellationToken.None));
+        Assert.Single(await after.Outbox.ListOutboxAsync(true, 10, CancellationToken.None));
     }
 
     /// <summary>A second handle on the database of this test's last <see cref="DatabaseAsync"/>, not a new database.</summary>

@@ -33,7 +33,7 @@ public sealed class FileChannelTests : IDisposable
         var html = Assert.Single(message.BodyParts.OfType<TextPart>(), p => p.IsHtml).Text;
         var image = Assert.Single(message.BodyParts.OfType<MimePart>(), p => p.ContentType.IsMimeType("image", "png"));
         Assert.Contains($"cid:{image.ContentId}", html, StringComparison.Ordinal);
-        Assert.Empty(await harness.Store.ListOutboxAsync(unsentOnly: true, 10, CancellationToken.None));
+        Assert.Empty(await harness.Outbox.ListOutboxAsync(unsentOnly: true, 10, CancellationToken.None));
     }
 
     [Fact]
@@ -43,7 +43,7 @@ public sealed class FileChannelTests : IDisposable
         var config = new AlertingConfig { MailingLists = [new MailingListConfig { Name = "archive", Channel = ChannelKind.File, Directory = folder }] };
         var harness = new AlertHarness(await _file.OpenAsync(), config);
         await harness.CycleAsync((Pair("weights"), [Critical(FindingKind.SignFlip, "flipped")]));
-        var entry = Assert.Single(await harness.Store.ClaimDueAsync(harness.Time.GetUtcNow(), TimeSpan.FromMinutes(5), harness.Options.ClaimOwner, 10, CancellationToken.None));
+        var entry = Assert.Single(await harness.Outbox.ClaimDueAsync(harness.Time.GetUtcNow(), TimeSpan.FromMinutes(5), harness.Options.ClaimOwner, 10, CancellationToken.None));
         using var parsed = MimeMessage.Load(new MemoryStream(entry.Mime!));
         var channel = new FileAlertChannel();
 

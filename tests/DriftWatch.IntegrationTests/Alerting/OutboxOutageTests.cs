@@ -25,7 +25,7 @@ public sealed class OutboxOutageTests : IDisposable
             harness.Time.Advance(TimeSpan.FromMinutes(1));
         }
 
-        var held = await harness.Store.ListOutboxAsync(unsentOnly: true, 100, CancellationToken.None);
+        var held = await harness.Outbox.ListOutboxAsync(unsentOnly: true, 100, CancellationToken.None);
         Assert.Equal(6, held.Count);
         Assert.All(held, e => Assert.Null(e.SentAt));
         // Tried ones carry the error; a mailing list's later messages in the same pass were deferred untried.
@@ -44,7 +44,7 @@ public sealed class OutboxOutageTests : IDisposable
         Assert.Equal(6, received.Count);
         Assert.Equal(6, received.Select(m => m.MessageId).Distinct(StringComparer.Ordinal).Count());
         Assert.Equal(held.Select(e => e.MessageId).Order(StringComparer.Ordinal), received.Select(m => m.MessageId).Order(StringComparer.Ordinal));
-        Assert.Empty(await harness.Store.ListOutboxAsync(unsentOnly: true, 100, CancellationToken.None));
+        Assert.Empty(await harness.Outbox.ListOutboxAsync(unsentOnly: true, 100, CancellationToken.None));
     }
 
     [Fact]
@@ -67,7 +67,7 @@ public sealed class OutboxOutageTests : IDisposable
 
         Assert.Equal((1, 1), (result.Sent, result.Failed));
         Assert.Single(await LoopbackSmtp.WaitForAsync(server, 1));
-        var waiting = Assert.Single(await harness.Store.ListOutboxAsync(unsentOnly: true, 10, CancellationToken.None));
+        var waiting = Assert.Single(await harness.Outbox.ListOutboxAsync(unsentOnly: true, 10, CancellationToken.None));
         Assert.Equal("archive", waiting.MailingList);
         Assert.Contains("cannot write", waiting.LastError, StringComparison.Ordinal);
     }
@@ -81,12 +81,12 @@ public sealed class OutboxOutageTests : IDisposable
         await harness.CycleAsync((Pair("weights"), [Critical(FindingKind.BecamePerfect, "exact")]));
 
         await harness.Dispatcher.DispatchDueAsync(CancellationToken.None);
-        var first = Assert.Single(await harness.Store.ListOutboxAsync(true, 10, CancellationToken.None));
+        var first = Assert.Single(await harness.Outbox.ListOutboxAsync(true, 10, CancellationToken.None));
         harness.Time.Advance(TimeSpan.FromMinutes(1));
         var early = await harness.Dispatcher.DispatchDueAsync(CancellationToken.None);
         harness.Time.Advance(TimeSpan.FromMinutes(1));
         await harness.Dispatcher.DispatchDueAsync(CancellationToken.None);
-        var second = Assert.Single(await harness.Store.ListOutboxAsync(true, 10, CancellationToken.None));
+        var second = Assert.Single(await harness.Outbox.ListOutboxAsync(true, 10, CancellationToken.None));
 
         // Attempt 1 failed at T: retry at T + 2 min (no jitter); attempt 2 failed at T + 2 min: retry 4 min later.
         Assert.Equal(1, first.Attempts);

@@ -27,7 +27,7 @@ public sealed class OutboxRestartTests : IDisposable
         var killed = new AlertHarness(await _file.OpenAsync(), config, WorkerA);
         var queued = Assert.Single((await killed.CycleAsync((Pair("weights"), [Critical(FindingKind.BecamePerfect, "weighed_kg became an exact copy of declared_kg")]))).Queued);
         // The dispatcher claimed the message and the process died before sending it.
-        Assert.Single(await killed.Store.ClaimDueAsync(killed.Time.GetUtcNow(), WorkerA.Lease, WorkerA.ClaimOwner, 10, CancellationToken.None));
+        Assert.Single(await killed.Outbox.ClaimDueAsync(killed.Time.GetUtcNow(), WorkerA.Lease, WorkerA.ClaimOwner, 10, CancellationToken.None));
 
         // Restarted a moment later (the clock has not moved): the lease alone would hold the mail back.
         var restarted = new AlertHarness(await _file.OpenAsync(), config, WorkerA);
@@ -40,7 +40,7 @@ public sealed class OutboxRestartTests : IDisposable
         Assert.Equal(1, sent.Sent);
         var received = Assert.Single(await LoopbackSmtp.WaitForAsync(server, 1));
         Assert.Equal(queued.MessageId, received.MessageId);
-        Assert.Empty(await restarted.Store.ListOutboxAsync(unsentOnly: true, 10, CancellationToken.None));
+        Assert.Empty(await restarted.Outbox.ListOutboxAsync(unsentOnly: true, 10, CancellationToken.None));
     }
 
     [Fact]
@@ -49,7 +49,7 @@ public sealed class OutboxRestartTests : IDisposable
         var config = new AlertingConfig { MailingLists = [new MailingListConfig { Name = "archive", Channel = ChannelKind.File, Directory = _file.Folder }] };
         var killed = new AlertHarness(await _file.OpenAsync(), config, WorkerA);
         await killed.CycleAsync((Pair("weights"), [Critical(FindingKind.BecamePerfect, "weighed_kg became an exact copy of declared_kg")]));
-        Assert.Single(await killed.Store.ClaimDueAsync(killed.Time.GetUtcNow(), WorkerA.Lease, WorkerA.ClaimOwner, 10, CancellationToken.None));
+        Assert.Single(await killed.Outbox.ClaimDueAsync(killed.Time.GetUtcNow(), WorkerA.Lease, WorkerA.ClaimOwner, 10, CancellationToken.None));
 
         // worker-a may still be sending it: worker-b must not take it.
         var other = new AlertHarness(await _file.OpenAsync(), config, WorkerA with { ClaimOwner = "worker-b" });
@@ -70,13 +70,13 @@ public sealed class OutboxRestartTests : IDisposable
         var harness = new AlertHarness(await _file.OpenAsync(), config, WorkerA);
         await harness.CycleAsync((Pair("weights"), [Critical(FindingKind.BecamePerfect, "weighed_kg became an exact copy of declared_kg")]));
         var slow = new HeldChannel();
-        var dispatcher = new OutboxDispatcher(harness.Store, [slow], config, WorkerA, harness.Time, new Random(7), NullLogger<OutboxDispatcher>.Instance);
+        var dispatcher = new OutboxDispatcher(harness.Outbox, [slow], config, WorkerA, harness.Time, new Random(7), NullLogger<OutboxDispatcher>.Instance);
         var leaseEnd = harness.Time.GetUtcNow() + WorkerA.Lease;
 
         var sending = dispatcher.DispatchDueAsync(CancellationToken.None);
         await slow.Entered.Task.WaitAsync(TimeSpan.FromSeconds(30));
         // The clock moves while the message is in hand, until a renewal has pushed the lease past its first end.
-        for (var step = 0; (await harness.Store.ListOutboxAsync(true, 1, CancellationToken.None))[0].NextAttemptAt <= leaseEnd; step++)
+        for (var step = 0; (await harness.Outbox.ListOutboxAsync(true, 1, CancellationToken.None))[0].NextAttemptAt <= leaseEnd; step++)
         {
             Assert.True(step < 500, "the lease of a message in hand was never renewed");
             if (harness.Time.GetUtcNow() < leaseEnd - TimeSpan.FromSeconds(5))
@@ -87,13 +87,13 @@ public sealed class OutboxRestartTests : IDisposable
             await Task.Delay(10);
         }
 
-        var taken = await harness.Store.ClaimDueAsync(leaseEnd, WorkerA.Lease, "worker-b", 10, CancellationToken.None);
+        var taken = await harness.Outbox.ClaimDueAsync(leaseEnd, WorkerA.Lease, "worker-b", 10, CancellationToken.None);
         slow.Release.SetResult();
         var result = await sending;
 
         Assert.Empty(taken);
         Assert.Equal(1, result.Sent);
-        Assert.Empty(await harness.Store.ListOutboxAsync(unsentOnly: true, 10, CancellationToken.None));
+        Assert.Empty(await harness.Outbox.ListOutboxAsync(unsentOnly: true, 10, CancellationToken.None));
     }
 
     public void Dispose() => _file.Dispose();

@@ -5,7 +5,8 @@ namespace DriftWatch.Alerting.Outbox;
 
 /// <summary>
 /// Runs the dispatcher in the worker: at start (its own claims from before a restart taken back first, then every
-/// message due), after every cycle, and on a poll.
+/// message due), after every cycle, and on a poll. Retention of sent messages is the maintenance job's
+/// (Scheduling/StoreMaintenanceJob.cs), with every other table's.
 /// </summary>
 internal sealed class OutboxDispatchService(
     OutboxDispatcher dispatcher,
@@ -14,11 +15,8 @@ internal sealed class OutboxDispatchService(
     TimeProvider time,
     ILogger<OutboxDispatchService> logger) : BackgroundService
 {
-    private static readonly TimeSpan PruneEvery = TimeSpan.FromHours(1);
-
     protected override async Task ExecuteAsync(CancellationToken stoppingToken)
     {
-        var lastPrune = DateTimeOffset.MinValue;
         var tookBack = false;
         while (!stoppingToken.IsCancellationRequested)
         {
@@ -32,12 +30,6 @@ internal sealed class OutboxDispatchService(
                 }
 
                 await dispatcher.DispatchDueAsync(stoppingToken);
-                if (time.GetUtcNow() - lastPrune >= PruneEvery)
-                {
-                    var pruned = await dispatcher.PruneAsync(stoppingToken);
-                    lastPrune = time.GetUtcNow();
-                    logger.LogDebug("Pruned {Count} sent messages and cleared alerts", pruned);
-                }
             }
             catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)
             {

@@ -16,7 +16,7 @@ namespace DriftWatch.Alerting.Outbox;
 /// while the other lists carry on. Nothing is ever dropped: an outage only delays.
 /// </summary>
 internal sealed class OutboxDispatcher(
-    IAlertStore store,
+    IOutboxStore store,
     IEnumerable<IAlertChannel> channels,
     AlertingConfig config,
     OutboxOptions options,
@@ -60,13 +60,6 @@ internal sealed class OutboxDispatcher(
         }
 
         return taken;
-    }
-
-    /// <summary>Deletes sent messages and cleared alerts past their retention.</summary>
-    public Task<int> PruneAsync(CancellationToken cancellationToken)
-    {
-        var now = time.GetUtcNow();
-        return store.PruneAsync(now - options.SentRetention, now - options.ClearedRetention, cancellationToken);
     }
 
     private async Task<DispatchResult> DispatchBatchAsync(IReadOnlyList<OutboxEntry> batch, CancellationToken cancellationToken)

@@ -1,13 +1,15 @@
 using DriftWatch.Alerting.Evaluation;
 using DriftWatch.Alerting.Outbox;
 using DriftWatch.Core.Configuration;
+using DriftWatch.Monitoring;
 
-namespace DriftWatch.Monitoring;
+namespace DriftWatch.Hosting;
 
 /// <summary>
 /// One full pass for a set of pairs: every check, then alert evaluation over the runs recorded since the last
-/// evaluation, then delivery of what is due. <c>check</c> and the demo use it; the worker runs the same steps
-/// on schedules (<see cref="Scheduling.PairCheckJob"/>, <see cref="Scheduling.AlertCycleJob"/>).
+/// evaluation, then delivery of what is due: monitoring ends at "run recorded", alerting starts from there; this
+/// is where the two are put in a row. <c>check</c> and the demo use it; the worker runs the same steps on
+/// schedules (<see cref="Scheduling.PairCheckJob"/>, <see cref="Scheduling.AlertCycleJob"/>).
 /// </summary>
 internal sealed class CheckPass(MonitorCycle cycle, AlertEvaluation alerts, OutboxDispatcher outbox)
 {

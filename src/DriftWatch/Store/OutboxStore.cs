@@ -5,8 +5,8 @@ using static DriftWatch.Store.AlertStoreText;
 
 namespace DriftWatch.Store;
 
-/// <summary>The outbox half of <see cref="AlertStore"/>.</summary>
-internal sealed partial class AlertStore
+/// <summary>The outbox over <see cref="IStoreDatabase"/>; messages are inserted by <see cref="AlertStore.ApplyCycleAsync"/>.</summary>
+internal sealed class OutboxStore(IStoreDatabase database) : IOutboxStore
 {
     private const string OutboxColumns =
         "id AS Id, message_id AS MessageId, mailing_list AS MailingList, channel AS Channel, created_at_ms AS CreatedAtMs, " +
@@ -89,25 +89,17 @@ internal sealed partial class AlertStore
             cancellationToken: cancellationToken));
     }
 
-    public async Task<int> PruneAsync(DateTimeOffset sentBefore, DateTimeOffset clearedBefore, CancellationToken cancellationToken)
+    public async Task<int> PruneSentAsync(DateTimeOffset sentBefore, CancellationToken cancellationToken)
     {
         await using var connection = await database.OpenAsync(cancellationToken);
-        await using var transaction = await connection.BeginTransactionAsync(cancellationToken);
-        var outbox = await connection.ExecuteAsync(new CommandDefinition(
+        return await connection.ExecuteAsync(new CommandDefinition(
             "DELETE FROM outbox WHERE sent_at_ms IS NOT NULL AND sent_at_ms < @before",
             new { before = Ms(sentBefore) },
-            transaction,
             cancellationToken: cancellationToken));
-        var alerts = await connection.ExecuteAsync(new CommandDefinition(
-            "DELETE FROM alerts WHERE status = 'cleared' AND cleared_at_ms < @before",
-            new { before = Ms(clearedBefore) },
-            transaction,
-            cancellationToken: cancellationToken));
-        await transaction.CommitAsync(cancellationToken);
-        return outbox + alerts;
     }
 
-    private static async Task InsertOutboxAsync(DbConnection connection, DbTransaction transaction, OutboxMessage message, CancellationToken cancellationToken) =>
+    /// <summary>Queues one message inside the caller's transaction (the one that stores the decision behind it).</summary>
+    internal static async Task InsertAsync(DbConnection connection, DbTransaction transaction, OutboxMessage message, CancellationToken cancellationToken) =>
         await connection.ExecuteAsync(new CommandDefinition(
             """
             INSERT INTO outbox (message_id, mailing_list, channel, created_at_ms, next_attempt_at_ms, attempts, subject, recipients, mime)
