@@ -20,8 +20,8 @@ internal static class ApiMapping
             pair.Config?.Y,
             pair.Tags,
             pair.Config is not null,
-            Finite(pair.DeltaR),
-            Finite(pair.SlopeRatio),
+            JsonContract.Finite(pair.DeltaR),
+            JsonContract.Finite(pair.SlopeRatio),
             pair.OpenAlerts.Count,
             pair.WorstOpenSeverity,
             pair.Latest is null ? null : RunJson.Of(pair.Latest),
@@ -38,7 +38,7 @@ internal static class ApiMapping
             baseline.CoversTo,
             baseline.RunCount,
             baseline.Accepted,
-            Finite(baseline.MeanRunUsed),
+            JsonContract.Finite(baseline.MeanRunUsed),
             baseline.Points.UsedCount,
             JsonContract.ToJson(baseline.Profile));
     }
@@ -65,6 +65,4 @@ internal static class ApiMapping
         ArgumentNullException.ThrowIfNull(overview);
         return new AlertsResponse(now, overview.ClearedSince, [.. overview.Open.Select(AlertJson.Of)], [.. overview.Cleared.Select(AlertJson.Of)], [.. overview.Deliveries.Select(ToJson)]);
     }
-
-    private static double? Finite(double? value) => value is { } v && double.IsFinite(v) ? v : null;
 }
