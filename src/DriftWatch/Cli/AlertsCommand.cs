@@ -3,6 +3,7 @@ using System.Globalization;
 using System.Text.Json.Serialization;
 using DriftWatch.Configuration;
 using DriftWatch.Core.Alerting;
+using DriftWatch.Hosting;
 using DriftWatch.Output;
 using DriftWatch.Store;
 using Microsoft.Extensions.DependencyInjection;
@@ -39,7 +40,7 @@ internal static class AlertsCommand
                 return ExitCodes.UsageError;
             }
 
-            await using var services = await CliServices.StartAsync(loaded, verbose: false, ct);
+            await using var services = await OneShotServices.StartAsync(loaded, verbose: false, ct);
             var store = services.GetRequiredService<IAlertStore>();
             var now = services.GetRequiredService<TimeProvider>().GetUtcNow();
             var alerts = await store.ListAlertsAsync(now - RecentlyCleared, 200, ct);
@@ -47,8 +48,8 @@ internal static class AlertsCommand
             if (parse.GetValue(format) == OutputFormat.Json)
             {
                 console.Out.WriteLine(JsonContract.Serialize(new AlertListJson(
-                    [.. alerts.Select(a => new AlertJson(a.Id, a.Pair, JsonContract.Name(a.Kind), JsonContract.Name(a.Severity), JsonContract.Name(a.Status), a.FirstSeen, a.ConfirmedAt, a.LastNotifiedAt, a.ClearedAt, a.AckedAt, a.Message))],
-                    [.. snoozes.Select(s => new SnoozeJson(s.Pair, s.Until, s.Reason))])));
+                    [.. alerts.Select(AlertJson.Of)],
+                    [.. snoozes.Select(SnoozeJson.Of)])));
                 return ExitCodes.Healthy;
             }
 
@@ -103,7 +104,7 @@ internal static class AlertsCommand
                 return ExitCodes.UsageError;
             }
 
-            await using var services = await CliServices.StartAsync(loaded, verbose: false, ct);
+            await using var services = await OneShotServices.StartAsync(loaded, verbose: false, ct);
             var alertId = parse.GetValue(id);
             var now = services.GetRequiredService<TimeProvider>().GetUtcNow();
             if (!await services.GetRequiredService<IAlertStore>().AckAsync(alertId, now, ct))
@@ -139,7 +140,7 @@ internal static class AlertsCommand
                 throw new CliUsageException($"--for {problem ?? "must be longer than zero"}");
             }
 
-            await using var services = await CliServices.StartAsync(loaded, verbose: false, ct);
+            await using var services = await OneShotServices.StartAsync(loaded, verbose: false, ct);
             var now = services.GetRequiredService<TimeProvider>().GetUtcNow();
             await services.GetRequiredService<IAlertStore>().SnoozeAsync(target.Name, now + span, now, parse.GetValue(reason), ct);
             console.Ansi.MarkupLine($"[green]✓[/] [bold]{Markup.Escape(target.Name)}[/] snoozed until {Time(now + span)} UTC");
@@ -162,7 +163,7 @@ internal static class AlertsCommand
             }
 
             var target = PairSelection.Find(loaded, parse.GetValue(pair)!);
-            await using var services = await CliServices.StartAsync(loaded, verbose: false, ct);
+            await using var services = await OneShotServices.StartAsync(loaded, verbose: false, ct);
             var removed = await services.GetRequiredService<IAlertStore>().UnsnoozeAsync(target.Name, ct);
             console.Ansi.MarkupLine(removed ? $"[green]✓[/] snooze of [bold]{Markup.Escape(target.Name)}[/] ended" : $"'{Markup.Escape(target.Name)}' was not snoozed");
             return ExitCodes.Healthy;
@@ -176,21 +177,3 @@ internal static class AlertsCommand
 internal sealed record AlertListJson(
     [property: JsonPropertyName("alerts")] IReadOnlyList<AlertJson> Alerts,
     [property: JsonPropertyName("snoozes")] IReadOnlyList<SnoozeJson> Snoozes);
-
-internal sealed record AlertJson(
-    [property: JsonPropertyName("id")] long Id,
-    [property: JsonPropertyName("pair")] string Pair,
-    [property: JsonPropertyName("kind")] string Kind,
-    [property: JsonPropertyName("severity")] string Severity,
-    [property: JsonPropertyName("status")] string Status,
-    [property: JsonPropertyName("first_seen")] DateTimeOffset FirstSeen,
-    [property: JsonPropertyName("confirmed_at")] DateTimeOffset? ConfirmedAt,
-    [property: JsonPropertyName("last_notified_at")] DateTimeOffset? LastNotifiedAt,
-    [property: JsonPropertyName("cleared_at")] DateTimeOffset? ClearedAt,
-    [property: JsonPropertyName("acked_at")] DateTimeOffset? AckedAt,
-    [property: JsonPropertyName("message")] string Message);
-
-internal sealed record SnoozeJson(
-    [property: JsonPropertyName("pair")] string Pair,
-    [property: JsonPropertyName("until")] DateTimeOffset Until,
-    [property: JsonPropertyName("reason")] string? Reason);

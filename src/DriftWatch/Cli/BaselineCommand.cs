@@ -1,6 +1,7 @@
 using System.CommandLine;
 using System.Globalization;
 using DriftWatch.Core.History;
+using DriftWatch.Hosting;
 using DriftWatch.Monitoring;
 using DriftWatch.Output;
 using DriftWatch.Store;
@@ -41,7 +42,7 @@ internal static class BaselineCommand
             }
 
             var pair = PairSelection.Find(loaded, parse.GetValue(pairName)!);
-            await using var services = await CliServices.StartAsync(loaded, verbose: false, ct);
+            await using var services = await OneShotServices.StartAsync(loaded, verbose: false, ct);
             return await action(console, services, pair, ct);
         });
         return command;

@@ -1,6 +1,7 @@
 using System.CommandLine;
 using DriftWatch.Core.Findings;
 using DriftWatch.Core.History;
+using DriftWatch.Hosting;
 using DriftWatch.Monitoring;
 using DriftWatch.Output;
 using Microsoft.Extensions.DependencyInjection;
@@ -43,7 +44,7 @@ internal static class CheckCommand
                 return ExitCodes.Healthy;
             }
 
-            await using var services = await CliServices.StartAsync(loaded, parse.GetValue(verbose), ct);
+            await using var services = await OneShotServices.StartAsync(loaded, parse.GetValue(verbose), ct);
             var progress = new ImmediateProgress<PairCheckResult>(r => console.Error.WriteLine(
                 r.Status switch
                 {

@@ -1,6 +1,7 @@
 using System.CommandLine;
 using System.CommandLine.Invocation;
 using System.CommandLine.Parsing;
+using DriftWatch.Output;
 
 namespace DriftWatch.Cli;
 

@@ -1,6 +1,7 @@
 using System.CommandLine;
 using DriftWatch.Configuration;
 using DriftWatch.Core.Configuration;
+using DriftWatch.Output;
 
 namespace DriftWatch.Cli;
 

@@ -1,5 +1,6 @@
 using System.CommandLine;
 using DriftWatch.Demo;
+using DriftWatch.Output;
 
 namespace DriftWatch.Cli;
 

@@ -2,6 +2,7 @@ using System.CommandLine;
 using System.Globalization;
 using System.Text.Json.Serialization;
 using DriftWatch.Core.History;
+using DriftWatch.Hosting;
 using DriftWatch.Output;
 using DriftWatch.Store;
 using Microsoft.Extensions.DependencyInjection;
@@ -40,11 +41,11 @@ internal static class HistoryCommand
                 throw new CliUsageException($"--last must be at least 1, was {n}");
             }
 
-            await using var services = await CliServices.StartAsync(loaded, verbose: false, ct);
+            await using var services = await OneShotServices.StartAsync(loaded, verbose: false, ct);
             var runs = await services.GetRequiredService<IHistoryStore>().GetRunsAsync(pair.Name, n, includePoints: false, ct);
             if (parse.GetValue(format) == OutputFormat.Json)
             {
-                console.Out.WriteLine(JsonContract.Serialize(new HistoryJson(pair.Name, [.. runs.Select(ToJson)])));
+                console.Out.WriteLine(JsonContract.Serialize(new HistoryJson(pair.Name, [.. runs.Select(RunJson.Of)])));
                 return ExitCodes.Healthy;
             }
 
@@ -82,32 +83,8 @@ internal static class HistoryCommand
         });
         return command;
     }
-
-    private static HistoryRunJson ToJson(RunRecord run) => new(
-        run.Id,
-        run.StartedAt,
-        run.FinishedAt,
-        JsonContract.Name(run.Status),
-        run.Error,
-        run.SampleMethod,
-        run.Profile is null ? null : JsonContract.ToJson(run.Profile),
-        [.. run.Findings.Select(JsonContract.ToJson)],
-        WindowJson.Of(run.SourceFigures),
-        JudgedAgainstJson.Of(run.JudgedAgainst));
 }
 
 internal sealed record HistoryJson(
     [property: JsonPropertyName("pair")] string Pair,
-    [property: JsonPropertyName("runs")] IReadOnlyList<HistoryRunJson> Runs);
-
-internal sealed record HistoryRunJson(
-    [property: JsonPropertyName("id")] long Id,
-    [property: JsonPropertyName("started_at")] DateTimeOffset StartedAt,
-    [property: JsonPropertyName("finished_at")] DateTimeOffset FinishedAt,
-    [property: JsonPropertyName("status")] string Status,
-    [property: JsonPropertyName("error")] string? Error,
-    [property: JsonPropertyName("sample_method")] string? SampleMethod,
-    [property: JsonPropertyName("profile")] ProfileJson? Profile,
-    [property: JsonPropertyName("findings")] IReadOnlyList<FindingJson> Findings,
-    [property: JsonPropertyName("window")] WindowJson? Window,
-    [property: JsonPropertyName("judged_against")] JudgedAgainstJson? JudgedAgainst);
+    [property: JsonPropertyName("runs")] IReadOnlyList<RunJson> Runs);

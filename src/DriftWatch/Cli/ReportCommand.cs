@@ -3,6 +3,7 @@ using System.Data.Common;
 using DriftWatch.Configuration;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Dashboard.Export;
+using DriftWatch.Output;
 using DriftWatch.Store;
 using Microsoft.Data.Sqlite;
 
@@ -54,7 +55,7 @@ internal static class ReportCommand
         {
             var history = StoreFactory.CreateHistoryStore(database, config.Store);
             var alerts = new AlertStore(database);
-            var result = await StaticReport.WriteAsync(config, history, alerts, outDir, pair, cancellationToken);
+            var result = await StaticReport.WriteAsync(config, history, alerts, new OutboxStore(database), outDir, pair, cancellationToken);
             console.Out.WriteLine($"wrote {result.Files.Count} pages to {Path.GetFullPath(outDir)} (open index.html)");
             console.WriteNote("the pages contain sampled data values from the watched databases; share them as you would the data.");
             return ExitCodes.Healthy;

@@ -2,6 +2,7 @@ using System.CommandLine;
 using System.CommandLine.Parsing;
 using DriftWatch.Dashboard;
 using DriftWatch.Hosting;
+using DriftWatch.Output;
 using Microsoft.AspNetCore.Builder;
 using Microsoft.Extensions.Hosting;
 

@@ -1,4 +1,5 @@
 using System.CommandLine;
+using DriftWatch.Output;
 using DriftWatch.Sources;
 using Spectre.Console;
 

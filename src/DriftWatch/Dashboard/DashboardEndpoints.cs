@@ -92,7 +92,7 @@ internal static class DashboardEndpoints
             var query = http.Request.Query;
             var size = int.TryParse(query["page_size"], NumberStyles.None, CultureInfo.InvariantCulture, out var s) ? s : DashboardReader.DefaultPageSize;
             var detail = await reader.GetPairAsync(pair, PageNumber(query["page"]), size, ct);
-            return (StatusCodes.Status200OK, (object)new RunsResponse(pair, detail.Page, detail.PageSize, detail.PageCount, detail.TotalRuns, [.. detail.Runs.Select(ApiMapping.ToJson)]));
+            return (StatusCodes.Status200OK, (object)new RunsResponse(pair, detail.Page, detail.PageSize, detail.PageCount, detail.TotalRuns, [.. detail.Runs.Select(RunJson.Of)]));
         }));
 
         guarded.MapGet("/api/alerts", (HttpContext http, CancellationToken ct) => Json(http, logger, async () =>

@@ -17,6 +17,9 @@ internal sealed record DashboardServerOptions(
     IHistoryStore History,
     IAlertStore Alerts)
 {
+    /// <summary>The outbox of the same store, unless a test passes its own.</summary>
+    public IOutboxStore Outbox { get; init; } = new OutboxStore(Database);
+
     public TimeProvider Time { get; init; } = TimeProvider.System;
 
     public IWorkerHealth? WorkerHealth { get; init; }
@@ -63,6 +66,7 @@ internal sealed class DashboardServer : IAsyncDisposable
         builder.Services.AddSingleton(options.Database);
         builder.Services.AddSingleton(options.History);
         builder.Services.AddSingleton(options.Alerts);
+        builder.Services.AddSingleton(options.Outbox);
         builder.Services.AddSingleton(options.Time);
         if (options.WorkerHealth is { } health)
         {

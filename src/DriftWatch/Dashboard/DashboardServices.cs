@@ -11,7 +11,7 @@ namespace DriftWatch.Dashboard;
 
 /// <summary>
 /// Registers what <see cref="DashboardEndpoints.Map"/> needs. The host registers the rest: DriftWatchConfig,
-/// IStoreDatabase, IHistoryStore and IAlertStore (singletons), and optionally <see cref="IWorkerHealth"/>.
+/// IStoreDatabase, IHistoryStore, IAlertStore and IOutboxStore (singletons), and optionally <see cref="IWorkerHealth"/>.
 /// Throws when the configuration binds beyond loopback without an access token.
 /// </summary>
 internal static class DashboardServices
@@ -28,6 +28,7 @@ internal static class DashboardServices
             sp.GetRequiredService<DriftWatchConfig>(),
             sp.GetRequiredService<IHistoryStore>(),
             sp.GetRequiredService<IAlertStore>(),
+            sp.GetRequiredService<IOutboxStore>(),
             sp.GetRequiredService<TimeProvider>()));
         services.AddSingleton(sp => new DashboardMetrics(
             sp.GetRequiredService<IStoreDatabase>(),

@@ -1,5 +1,5 @@
-using DriftWatch.Cli;
 using DriftWatch.Dashboard;
+using DriftWatch.Output;
 using DriftWatch.Store;
 using Microsoft.Extensions.Logging;
 

@@ -1,6 +1,7 @@
 using System.Globalization;
 using DriftWatch.Core.Findings;
 using DriftWatch.Core.History;
+using DriftWatch.Hosting;
 using DriftWatch.Monitoring;
 using DriftWatch.Output;
 

@@ -1,14 +1,12 @@
 using System.Globalization;
-using DriftWatch.Cli;
 using DriftWatch.Configuration;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Dashboard.Export;
 using DriftWatch.Hosting;
 using DriftWatch.Monitoring;
+using DriftWatch.Output;
 using DriftWatch.Store;
 using Microsoft.Extensions.DependencyInjection;
-using Microsoft.Extensions.Logging;
-using Serilog;
 using Serilog.Events;
 
 namespace DriftWatch.Demo;
@@ -48,7 +46,9 @@ internal sealed class DemoRunner(CliConsole console)
         output.WriteLine();
 
         var clock = new DemoClock(TerminalScenario.CheckTimeOf(1));
-        await using var services = await StartServicesAsync(config, clock, options.Verbose, cancellationToken);
+        // Errors only unless --verbose: the day lines already say what each check found (a failing check
+        // would otherwise log a warning per day on top of its line).
+        await using var services = await OneShotServices.StartAsync(config, options.Verbose ? LogEventLevel.Information : LogEventLevel.Error, cancellationToken, clock);
         var pass = services.GetRequiredService<CheckPass>();
         var lines = new DemoDayLine();
         for (var day = 1; day <= options.Days; day++)
@@ -70,7 +70,7 @@ internal sealed class DemoRunner(CliConsole console)
 
         // The dashboard's pages as files, dated at the last simulated check so ages read as they would have then.
         var reportFolder = Path.Combine(folder, DemoFolder.ReportFolder);
-        await StaticReport.WriteAsync(config, history, alerts, reportFolder, pair: null, clock, cancellationToken);
+        await StaticReport.WriteAsync(config, history, alerts, services.GetRequiredService<IOutboxStore>(), reportFolder, pair: null, clock, cancellationToken);
         return new DemoRun(folder, configPath, config, outcome, mails, clock.UtcNow)
         {
             ReportPath = Path.Combine(reportFolder, "index.html"),
@@ -92,27 +92,6 @@ internal sealed class DemoRunner(CliConsole console)
         }
 
         return result.Config;
-    }
-
-    private static async Task<ServiceProvider> StartServicesAsync(DriftWatchConfig config, TimeProvider clock, bool verbose, CancellationToken cancellationToken)
-    {
-        // Errors only unless --verbose: the day lines already say what each check found (a failing check
-        // would otherwise log a warning per day on top of its line).
-        var logger = LoggingSetup.Create(config.Logging, verbose ? LogEventLevel.Information : LogEventLevel.Error);
-        var services = new ServiceCollection()
-            .AddLogging(logging => logging.ClearProviders().AddSerilog(logger, dispose: true))
-            .AddDriftWatch(config, clock)
-            .BuildServiceProvider();
-        try
-        {
-            await services.MigrateStoreAsync(cancellationToken);
-            return services;
-        }
-        catch
-        {
-            await services.DisposeAsync();
-            throw;
-        }
     }
 
     private static async Task LoadDayAsync(IScenarioDatabase scenario, int day, CancellationToken cancellationToken)

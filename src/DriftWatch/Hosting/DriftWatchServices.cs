@@ -1,4 +1,6 @@
-using DriftWatch.Alerts;
+using DriftWatch.Alerting;
+using DriftWatch.Alerting.Evaluation;
+using DriftWatch.Alerting.Outbox;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Profiling;
 using DriftWatch.Monitoring;

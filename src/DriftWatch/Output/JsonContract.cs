@@ -66,7 +66,11 @@ internal static class JsonContract
             profile.DistinctX,
             profile.DistinctY,
             Finite(profile.InterceptSe),
-            profile.CooksOverThreshold);
+            profile.CooksOverThreshold,
+            Finite(profile.OutlierTestP),
+            Finite(profile.SlopeSeRobust),
+            Finite(profile.DerivedShare),
+            profile.DerivedEquation);
     }
 
     public static FindingJson ToJson(Finding finding)

@@ -4,7 +4,8 @@ using DriftWatch.Core.Profiling;
 namespace DriftWatch.Output;
 
 /// <summary>
-/// One profile as the outward JSON contract shows it. The names and their order are pinned by an
+/// One profile as the outward JSON contract shows it, the only hand-kept JSON form of
+/// <see cref="RelationshipProfile"/> (the store serialises the record itself). The names and their order are pinned by an
 /// approval test (tests/DriftWatch.Tests/Data/expected/profile_anscombe1.json): add fields at the end,
 /// never rename or reorder. Every double is finite or null.
 /// </summary>
@@ -47,4 +48,9 @@ internal sealed record ProfileJson(
     [property: JsonPropertyName("distinct_x")] int DistinctX,
     [property: JsonPropertyName("distinct_y")] int DistinctY,
     [property: JsonPropertyName("intercept_se")] double? InterceptSe,
-    [property: JsonPropertyName("cooks_over_threshold")] int? CooksOverThreshold);
+    [property: JsonPropertyName("cooks_over_threshold")] int? CooksOverThreshold,
+    // Every other figure of the profile, so the JSON is the whole profile (a test checks none is left out).
+    [property: JsonPropertyName("outlier_test_p")] double? OutlierTestP,
+    [property: JsonPropertyName("slope_se_robust")] double? SlopeSeRobust,
+    [property: JsonPropertyName("derived_share")] double? DerivedShare,
+    [property: JsonPropertyName("derived_equation")] string? DerivedEquation);

@@ -1,3 +1,4 @@
+using DriftWatch.Alerting.Evaluation;
 using DriftWatch.Monitoring;
 using Quartz;
 

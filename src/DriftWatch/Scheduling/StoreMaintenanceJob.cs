@@ -1,3 +1,4 @@
+using DriftWatch.Alerting.Outbox;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Store;
 using Microsoft.Extensions.Logging;
@@ -5,9 +6,21 @@ using Quartz;
 
 namespace DriftWatch.Scheduling;
 
-/// <summary>Applies the store's retention: old runs (with their findings) go, older runs' sampled points go first.</summary>
+/// <summary>
+/// Applies the store's retention to every table, in one place: old runs (with their findings) go, older runs'
+/// sampled points go first; cleared alerts and ended snoozes go after <see cref="OutboxOptions.ClearedRetention"/>,
+/// sent messages after <see cref="OutboxOptions.SentRetention"/>. Open alerts and unsent messages are never
+/// deleted; baselines (one per pair) and the feed watermark are replaced, never accumulate.
+/// </summary>
 [DisallowConcurrentExecution]
-internal sealed class StoreMaintenanceJob(DriftWatchConfig config, IHistoryStore history, TimeProvider time, ILogger<StoreMaintenanceJob> logger) : IJob
+internal sealed class StoreMaintenanceJob(
+    DriftWatchConfig config,
+    IHistoryStore history,
+    IAlertStore alerts,
+    IOutboxStore outbox,
+    OutboxOptions outboxOptions,
+    TimeProvider time,
+    ILogger<StoreMaintenanceJob> logger) : IJob
 {
     public static readonly TimeSpan Every = TimeSpan.FromHours(1);
 
@@ -18,6 +31,16 @@ internal sealed class StoreMaintenanceJob(DriftWatchConfig config, IHistoryStore
         if (deleted > 0)
         {
             logger.LogInformation("Retention: deleted {Runs} runs older than {Retention}", deleted, config.Store.Retention);
+        }
+
+        var cleared = await alerts.PruneClearedAsync(now - outboxOptions.ClearedRetention, cancellationToken);
+        var snoozes = await alerts.PruneEndedSnoozesAsync(now - outboxOptions.ClearedRetention, cancellationToken);
+        var sent = await outbox.PruneSentAsync(now - outboxOptions.SentRetention, cancellationToken);
+        if (cleared + snoozes + sent > 0)
+        {
+            logger.LogInformation(
+                "Retention: deleted {Cleared} cleared alerts and {Snoozes} ended snoozes older than {ClearedRetention}, {Sent} sent messages older than {SentRetention}",
+                cleared, snoozes, outboxOptions.ClearedRetention, sent, outboxOptions.SentRetention);
         }
     }
 }

@@ -1,13 +1,12 @@
 using System.Data.Common;
 using Dapper;
-using DriftWatch.Alerts;
 using DriftWatch.Core.Alerting;
 using static DriftWatch.Store.AlertStoreText;
 
 namespace DriftWatch.Store;
 
-/// <summary>Alert states and snoozes over <see cref="IStoreDatabase"/>; the outbox half is in AlertStore.Outbox.cs.</summary>
-internal sealed partial class AlertStore(IStoreDatabase database) : IAlertStore
+/// <summary>Alert states and snoozes over <see cref="IStoreDatabase"/>; the outbox is <see cref="OutboxStore"/>.</summary>
+internal sealed class AlertStore(IStoreDatabase database) : IAlertStore
 {
     private const string AlertColumns =
         "id AS Id, pair AS Pair, kind AS Kind, severity AS Severity, status AS Status, consecutive_runs AS ConsecutiveRuns, " +
@@ -48,7 +47,7 @@ internal sealed partial class AlertStore(IStoreDatabase database) : IAlertStore
 
         foreach (var message in outbox)
         {
-            await InsertOutboxAsync(connection, transaction, message, cancellationToken);
+            await OutboxStore.InsertAsync(connection, transaction, message, cancellationToken);
         }
 
         if (position is not null)
@@ -121,6 +120,24 @@ internal sealed partial class AlertStore(IStoreDatabase database) : IAlertStore
             new { now = Ms(now) },
             cancellationToken: cancellationToken));
         return [.. rows.Select(r => new PairSnooze(r.Pair, Time(r.UntilMs), Time(r.CreatedAtMs), r.Reason))];
+    }
+
+    public async Task<int> PruneClearedAsync(DateTimeOffset clearedBefore, CancellationToken cancellationToken)
+    {
+        await using var connection = await database.OpenAsync(cancellationToken);
+        return await connection.ExecuteAsync(new CommandDefinition(
+            "DELETE FROM alerts WHERE status = 'cleared' AND cleared_at_ms < @before",
+            new { before = Ms(clearedBefore) },
+            cancellationToken: cancellationToken));
+    }
+
+    public async Task<int> PruneEndedSnoozesAsync(DateTimeOffset endedBefore, CancellationToken cancellationToken)
+    {
+        await using var connection = await database.OpenAsync(cancellationToken);
+        return await connection.ExecuteAsync(new CommandDefinition(
+            "DELETE FROM snoozes WHERE until_ms < @before",
+            new { before = Ms(endedBefore) },
+            cancellationToken: cancellationToken));
     }
 
     private static async Task<long> InsertAsync(DbConnection connection, DbTransaction transaction, AlertState state, CancellationToken cancellationToken) =>

@@ -15,7 +15,7 @@ internal static class AlertStoreText
     private static readonly FrozenDictionary<string, ChannelKind> Channels = Map<ChannelKind>();
 
     public static string Name<T>(T value)
-        where T : struct, Enum => JsonNamingPolicy.SnakeCaseLower.ConvertName(value.ToString());
+        where T : struct, Enum => StoreJson.EnumText(value);
 
     public static FindingKind Kind(string text) => Parse(Kinds, text, "kind");
 

@@ -1,9 +1,11 @@
-using DriftWatch.Alerts;
 using DriftWatch.Core.Alerting;
 
 namespace DriftWatch.Store;
 
-/// <summary>Alert states, snoozes and the outbox. One implementation serves SQLite and PostgreSQL.</summary>
+/// <summary>
+/// Alert states and snoozes (what alerting decided); the queue of messages is <see cref="IOutboxStore"/>. One
+/// implementation serves SQLite and PostgreSQL.
+/// </summary>
 internal interface IAlertStore
 {
     /// <summary>Open (watching and confirmed) alerts, of the given pairs only when <paramref name="pairs"/> is not null.</summary>
@@ -38,29 +40,9 @@ internal interface IAlertStore
 
     Task<IReadOnlyList<PairSnooze>> ListSnoozesAsync(DateTimeOffset now, CancellationToken cancellationToken);
 
-    /// <summary>
-    /// Unsent entries due at <paramref name="now"/>, oldest first, each leased to <paramref name="owner"/> until
-    /// now + <paramref name="lease"/> (its next attempt moves there) so a second dispatcher, here or on another
-    /// instance, does not take it too.
-    /// </summary>
-    Task<IReadOnlyList<OutboxEntry>> ClaimDueAsync(DateTimeOffset now, TimeSpan lease, string owner, int limit, CancellationToken cancellationToken);
+    /// <summary>Deletes alerts cleared before <paramref name="clearedBefore"/>; open ones are never deleted.</summary>
+    Task<int> PruneClearedAsync(DateTimeOffset clearedBefore, CancellationToken cancellationToken);
 
-    /// <summary>Extends to <paramref name="until"/> the leases <paramref name="owner"/> still holds among <paramref name="ids"/> (sent or failed ones are no longer held).</summary>
-    Task<int> RenewClaimsAsync(IReadOnlyCollection<long> ids, string owner, DateTimeOffset until, CancellationToken cancellationToken);
-
-    /// <summary>
-    /// Makes every unsent entry leased to <paramref name="owner"/> due at <paramref name="now"/> and unclaimed: a
-    /// restarted worker takes back what it held when it died instead of waiting for the leases to run out.
-    /// </summary>
-    Task<int> TakeBackClaimsAsync(string owner, DateTimeOffset now, CancellationToken cancellationToken);
-
-    /// <summary>Newest first, without the message bytes.</summary>
-    Task<IReadOnlyList<OutboxEntry>> ListOutboxAsync(bool unsentOnly, int limit, CancellationToken cancellationToken);
-
-    Task MarkSentAsync(long id, DateTimeOffset at, CancellationToken cancellationToken);
-
-    Task MarkFailedAsync(long id, string error, DateTimeOffset nextAttemptAt, CancellationToken cancellationToken);
-
-    /// <summary>Deletes sent entries sent before <paramref name="sentBefore"/> and alerts cleared before <paramref name="clearedBefore"/>.</summary>
-    Task<int> PruneAsync(DateTimeOffset sentBefore, DateTimeOffset clearedBefore, CancellationToken cancellationToken);
+    /// <summary>Deletes snoozes that ended before <paramref name="endedBefore"/> (no listing shows them any more).</summary>
+    Task<int> PruneEndedSnoozesAsync(DateTimeOffset endedBefore, CancellationToken cancellationToken);
 }

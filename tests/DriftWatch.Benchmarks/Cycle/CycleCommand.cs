@@ -1,6 +1,7 @@
 using DriftWatch.Cli;
 using DriftWatch.Configuration;
 using DriftWatch.Core.History;
+using DriftWatch.Hosting;
 using DriftWatch.Monitoring;
 using Microsoft.Extensions.DependencyInjection;
 using Npgsql;
@@ -11,7 +12,7 @@ namespace DriftWatch.Benchmarks.Cycle;
 /// <c>dotnet run -c Release --project tests/DriftWatch.Benchmarks -- cycle [--pairs 1000] …</c>: one monitor
 /// cycle of many pairs on PostgreSQL through <see cref="CheckPass"/>, the path of the <c>check</c> command and
 /// the scheduler, with the configuration read by <see cref="ConfigLoader"/> and the services built by
-/// <see cref="CliServices"/>.
+/// <see cref="OneShotServices"/>.
 /// </summary>
 /// <remarks>
 /// A plain Stopwatch command rather than a BenchmarkDotNet class: one cycle takes tens of seconds and leaves a
@@ -65,7 +66,7 @@ internal static class CycleCommand
                 $"max_concurrent_queries {config.Sources[0].MaxConcurrentQueries}, {MonitorCycle.MaxParallelChecks} checks in parallel; " +
                 $"sample {config.Pairs[0].Sample.Rows} rows, method {config.Pairs[0].Sample.Method}; store {folder.FullName}");
 
-            await using var services = await CliServices.StartAsync(config, verbose: false, ct, new ShiftedClock(CycleTables.End));
+            await using var services = await OneShotServices.StartAsync(config, verbose: false, ct, new ShiftedClock(CycleTables.End));
             var pass = services.GetRequiredService<CheckPass>();
             var measured = new List<CycleMeasurement>();
             var failures = 0;

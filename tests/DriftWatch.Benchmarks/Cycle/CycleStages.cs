@@ -1,3 +1,4 @@
+using DriftWatch.Alerting.Evaluation;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Findings;
 using DriftWatch.Core.History;

@@ -123,7 +123,7 @@ public sealed partial class DashboardBrowserTests : IAsyncLifetime
         var folder = Path.Combine(Path.GetTempPath(), "driftwatch-export-" + Guid.NewGuid().ToString("N")[..10]);
         try
         {
-            await StaticReport.WriteAsync(_scenario.Config, _scenario.History, _scenario.Alerts, folder, null, DashboardScenario.Clock, CancellationToken.None);
+            await StaticReport.WriteAsync(_scenario.Config, _scenario.History, _scenario.Alerts, _scenario.Outbox, folder, null, DashboardScenario.Clock, CancellationToken.None);
             var page = await NewPageAsync();
             var failedRequests = new List<string>();
             page.RequestFailed += (_, request) => failedRequests.Add(request.Url);

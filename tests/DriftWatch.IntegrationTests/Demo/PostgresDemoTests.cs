@@ -3,6 +3,7 @@ using DriftWatch.Core.Findings;
 using DriftWatch.Core.History;
 using DriftWatch.Demo;
 using DriftWatch.IntegrationTests.Infrastructure;
+using DriftWatch.Output;
 using DriftWatch.Store;
 using Microsoft.Data.Sqlite;
 

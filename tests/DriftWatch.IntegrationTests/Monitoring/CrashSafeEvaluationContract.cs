@@ -38,7 +38,7 @@ public abstract class CrashSafeEvaluationContract : IDisposable
 
         // Nothing of the crashed cycle is stored: not the states, not the mail, not the watermark.
         Assert.Empty(await before.Alerts.GetOpenAlertsAsync(null, CancellationToken.None));
-        Assert.Empty(await before.Alerts.ListOutboxAsync(false, 10, CancellationToken.None));
+        Assert.Empty(await before.Outbox.ListOutboxAsync(false, 10, CancellationToken.None));
         Assert.Equal(0, await before.Feed.GetWatermarkAsync(RunFeed.AlertsWatermarkKey, CancellationToken.None));
 
         var after = new EvaluationHarness(await DatabaseAsync(), config, time);
@@ -90,7 +90,7 @@ public abstract class CrashSafeEvaluationContract : IDisposable
 
         await harness.Evaluation.EvaluateNewRunsAsync(CancellationToken.None);
         var open = await harness.Alerts.GetOpenAlertsAsync(null, CancellationToken.None);
-        var queued = await harness.Alerts.ListOutboxAsync(false, 10, CancellationToken.None);
+        var queued = await harness.Outbox.ListOutboxAsync(false, 10, CancellationToken.None);
 
         var alert = Assert.Single(open);
         Assert.Equal(("parcels", AlertStatus.Confirmed, good), (alert.Pair, alert.Status, alert.LastRunId));
@@ -129,7 +129,7 @@ public abstract class CrashSafeEvaluationContract : IDisposable
         var open = (await harness.Alerts.GetOpenAlertsAsync(null, CancellationToken.None)).ToDictionary(a => a.Kind);
         Assert.Equal((AlertStatus.Watching, 1, run1), (open[FindingKind.SlopeShift].Status, open[FindingKind.SlopeShift].ConsecutiveRuns, open[FindingKind.SlopeShift].LastRunId));
         Assert.Equal((AlertStatus.Confirmed, 1), (open[FindingKind.BecamePerfect].Status, open[FindingKind.BecamePerfect].ConsecutiveRuns));
-        Assert.Single(await harness.Alerts.ListOutboxAsync(false, 10, CancellationToken.None));
+        Assert.Single(await harness.Outbox.ListOutboxAsync(false, 10, CancellationToken.None));
         Assert.Equal(run1, await harness.Feed.GetWatermarkAsync(RunFeed.AlertsWatermarkKey, CancellationToken.None));
 
         var run2 = await harness.RecordAsync("parcels", Warning("slope moved from 0.50 to 0.91"));

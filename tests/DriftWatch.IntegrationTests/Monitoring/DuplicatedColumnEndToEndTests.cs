@@ -1,7 +1,8 @@
 using DriftWatch.Cli;
 using DriftWatch.Configuration;
 using DriftWatch.Core.Findings;
-using DriftWatch.IntegrationTests.Alerts;
+using DriftWatch.Hosting;
+using DriftWatch.IntegrationTests.Alerting;
 using DriftWatch.IntegrationTests.Infrastructure;
 using DriftWatch.Monitoring;
 using Microsoft.Extensions.DependencyInjection;
@@ -31,7 +32,7 @@ public sealed class DuplicatedColumnEndToEndTests(PostgresServer server) : IDisp
         using var smtp = LoopbackSmtp.Start();
         var config = LoadConfig(db.ConnectionString, LoopbackSmtp.Port(smtp));
 
-        await using var services = await CliServices.StartAsync(config, verbose: false, CancellationToken.None);
+        await using var services = await OneShotServices.StartAsync(config, verbose: false, CancellationToken.None);
         var pass = services.GetRequiredService<CheckPass>();
         var pairs = config.Pairs;
 

@@ -1,4 +1,5 @@
-using DriftWatch.Alerts;
+using DriftWatch.Alerting.Evaluation;
+using DriftWatch.Alerting.Outbox;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Findings;
 using DriftWatch.Core.History;
@@ -24,6 +25,7 @@ internal sealed class EvaluationHarness
         Time = time;
         History = new HistoryStore(database, config.Store.PointsPerRun);
         Alerts = new AlertStore(database);
+        Outbox = new OutboxStore(database);
         Feed = new RunFeed(database);
         var processor = new AlertCycleProcessor(Alerts, config.Alerting, time, new OutboxSignal(), NullLogger<AlertCycleProcessor>.Instance);
         Evaluation = new AlertEvaluation(config, Feed, History, processor, NullLogger<AlertEvaluation>.Instance);
@@ -36,6 +38,8 @@ internal sealed class EvaluationHarness
     public HistoryStore History { get; }
 
     public AlertStore Alerts { get; }
+
+    public OutboxStore Outbox { get; }
 
     public RunFeed Feed { get; }
 

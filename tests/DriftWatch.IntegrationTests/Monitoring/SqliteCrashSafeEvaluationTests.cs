@@ -1,4 +1,4 @@
-using DriftWatch.IntegrationTests.Alerts;
+using DriftWatch.IntegrationTests.Alerting;
 using DriftWatch.Store;
 
 namespace DriftWatch.IntegrationTests.Monitoring;

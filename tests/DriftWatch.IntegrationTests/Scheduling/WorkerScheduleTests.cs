@@ -1,7 +1,7 @@
 using DriftWatch.Configuration;
 using DriftWatch.Core.History;
 using DriftWatch.Hosting;
-using DriftWatch.IntegrationTests.Alerts;
+using DriftWatch.IntegrationTests.Alerting;
 using DriftWatch.IntegrationTests.Infrastructure;
 using DriftWatch.Store;
 using Microsoft.Extensions.DependencyInjection;

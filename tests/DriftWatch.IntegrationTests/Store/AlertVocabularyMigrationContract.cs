@@ -80,7 +80,7 @@ public abstract partial class AlertVocabularyMigrationContract : IAsyncLifetime
         Assert.Equal((T0, T0, (DateTimeOffset?)null, 3, "exact copy"), (confirmed.ConfirmedAt!.Value, confirmed.LastNotifiedAt!.Value, confirmed.ClearedAt, confirmed.ConsecutiveRuns, confirmed.Message));
         var cleared = Assert.Single(await store.ListAlertsAsync(T0.AddDays(-1), 10, CancellationToken.None), a => !a.IsOpen);
         Assert.Equal((3L, AlertStatus.Cleared, T0.AddHours(-10), T0.AddHours(-8)), (cleared.Id, cleared.Status, cleared.ConfirmedAt!.Value, cleared.ClearedAt!.Value));
-        var entry = Assert.Single(await store.ListOutboxAsync(unsentOnly: true, 10, CancellationToken.None));
+        var entry = Assert.Single(await new OutboxStore(Database).ListOutboxAsync(unsentOnly: true, 10, CancellationToken.None));
         Assert.Equal(("dw-old@driftwatch.local", "data-team", "an old subject"), (entry.MessageId, entry.MailingList, entry.Subject));
 
         // Ids keep rising past the deleted alert (they are shown to people for `alerts ack`).

@@ -1,4 +1,5 @@
 using DriftWatch.Cli;
+using DriftWatch.Output;
 
 namespace DriftWatch.Tests.Cli;
 

@@ -1,6 +1,7 @@
 using System.CommandLine;
 using System.Text.Json;
 using DriftWatch.Cli;
+using DriftWatch.Output;
 
 namespace DriftWatch.Tests.Cli;
 

@@ -1,6 +1,5 @@
 using System.Globalization;
 using System.Text;
-using DriftWatch.Alerts;
 using DriftWatch.Core.Alerting;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Findings;
@@ -50,6 +49,7 @@ internal sealed class DashboardScenario : IAsyncDisposable
         Config = config;
         History = StoreFactory.CreateHistoryStore(database, config.Store);
         Alerts = new AlertStore(database);
+        Outbox = new OutboxStore(database);
     }
 
     public IStoreDatabase Database { get; }
@@ -57,6 +57,8 @@ internal sealed class DashboardScenario : IAsyncDisposable
     public HistoryStore History { get; }
 
     public AlertStore Alerts { get; }
+
+    public OutboxStore Outbox { get; }
 
     public DriftWatchConfig Config { get; }
 
@@ -155,17 +157,17 @@ internal sealed class DashboardScenario : IAsyncDisposable
         }
 
         // Delivery outcomes: every message sent a minute after it was queued, except the newest, which failed once.
-        var entries = await Alerts.ListOutboxAsync(unsentOnly: true, 1000, cancellationToken);
+        var entries = await Outbox.ListOutboxAsync(unsentOnly: true, 1000, cancellationToken);
         var newest = entries.MaxBy(e => e.Id);
         foreach (var entry in entries)
         {
             if (entry == newest)
             {
-                await Alerts.MarkFailedAsync(entry.Id, "451 4.7.0 temporary failure, try again later", entry.CreatedAt + TimeSpan.FromMinutes(5), cancellationToken);
+                await Outbox.MarkFailedAsync(entry.Id, "451 4.7.0 temporary failure, try again later", entry.CreatedAt + TimeSpan.FromMinutes(5), cancellationToken);
             }
             else
             {
-                await Alerts.MarkSentAsync(entry.Id, entry.CreatedAt + TimeSpan.FromMinutes(1), cancellationToken);
+                await Outbox.MarkSentAsync(entry.Id, entry.CreatedAt + TimeSpan.FromMinutes(1), cancellationToken);
             }
         }
     }

@@ -1,7 +1,8 @@
-using DriftWatch.Alerts;
+using DriftWatch.Alerting.Outbox;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.History;
 using DriftWatch.Demo;
+using DriftWatch.Hosting;
 using DriftWatch.Monitoring;
 
 namespace DriftWatch.Tests.Demo;

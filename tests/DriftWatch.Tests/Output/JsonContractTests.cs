@@ -18,6 +18,7 @@ public sealed class JsonContractTests
         "pearson_r_without_top_influence", "exact_affine", "exact_identity", "exact_monotone", "equation",
         "shape", "shape_reason",
         "distinct_x", "distinct_y", "intercept_se", "cooks_over_threshold",
+        "outlier_test_p", "slope_se_robust", "derived_share", "derived_equation",
     ];
 
     private static JsonElement Serialize(ProfileReport report) =>
@@ -69,6 +70,31 @@ public sealed class JsonContractTests
         Assert.Equal("warning", f.GetProperty("severity").GetString());
         Assert.Equal(0.001, f.GetProperty("p_value").GetDouble());
         Assert.Equal(0.25, f.GetProperty("effect").GetDouble());
+    }
+
+    [Fact]
+    public void ToJson_Profile_CarriesEveryFigureOfTheProfile()
+    {
+        // The JSON is hand-kept beside the record: a figure added to RelationshipProfile and not to the JSON
+        // would silently be missing from every outward surface (as outlier_test_p once was).
+        var figures = typeof(RelationshipProfile).GetProperties(System.Reflection.BindingFlags.Public | System.Reflection.BindingFlags.Instance)
+            .Where(p => p.Name != "EqualityContract")
+            .Select(p => JsonNamingPolicy.SnakeCaseLower.ConvertName(p.Name));
+
+        Assert.Equal(figures.Order(StringComparer.Ordinal), ProfileFields.Order(StringComparer.Ordinal));
+    }
+
+    [Fact]
+    public void ToJson_Profile_LateFiguresCarryTheirValues()
+    {
+        var profile = new RelationshipProfile { OutlierTestP = 0.0125, SlopeSeRobust = 0.5, DerivedShare = 0.75, DerivedEquation = "y = 2·x" };
+
+        var current = Serialize(Report(profile)).GetProperty("current");
+
+        Assert.Equal(0.0125, current.GetProperty("outlier_test_p").GetDouble());
+        Assert.Equal(0.5, current.GetProperty("slope_se_robust").GetDouble());
+        Assert.Equal(0.75, current.GetProperty("derived_share").GetDouble());
+        Assert.Equal("y = 2·x", current.GetProperty("derived_equation").GetString());
     }
 
     [Theory]

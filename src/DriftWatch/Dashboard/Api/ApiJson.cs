@@ -4,9 +4,9 @@ using DriftWatch.Output;
 
 namespace DriftWatch.Dashboard.Api;
 
-// The dashboard's JSON API. Names are snake_case by JsonContract's naming policy; profiles and findings use the
-// shared contract records (ProfileJson, FindingJson) unchanged, so a script reads the same fields as from
-// `driftwatch profile --format json`. Add fields at the end; the shape is pinned by an approval test.
+// The dashboard's JSON API. Names are snake_case by JsonContract's naming policy; runs, alerts, profiles and findings
+// use the shared records of Output (RunJson, AlertJson, ProfileJson, FindingJson) unchanged, so a script reads the
+// same fields as from `driftwatch history|alerts list|profile --format json`. Only the envelopes live here. Add fields at the end; the shape is pinned by an approval test.
 
 /// <summary>GET /api/pairs.</summary>
 internal sealed record PairsResponse(DateTimeOffset GeneratedAt, IReadOnlyList<PairJson> Pairs);
@@ -25,19 +25,6 @@ internal sealed record PairJson(
     Severity? WorstOpenSeverity,
     RunJson? LatestRun,
     BaselineJson? Baseline);
-
-internal sealed record RunJson(
-    long Id,
-    DateTimeOffset StartedAt,
-    DateTimeOffset FinishedAt,
-    double DurationSeconds,
-    string Status,
-    string? Error,
-    string? SampleMethod,
-    ProfileJson? Profile,
-    IReadOnlyList<FindingJson> Findings,
-    WindowJson? Window,
-    JudgedAgainstJson? JudgedAgainst);
 
 internal sealed record BaselineJson(
     string Policy,
@@ -60,22 +47,6 @@ internal sealed record AlertsResponse(
     IReadOnlyList<AlertJson> Open,
     IReadOnlyList<AlertJson> Cleared,
     IReadOnlyList<DeliveryJson> Deliveries);
-
-internal sealed record AlertJson(
-    long Id,
-    string Pair,
-    FindingKind Kind,
-    Severity Severity,
-    AlertStatus Status,
-    int ConsecutiveRuns,
-    DateTimeOffset FirstSeen,
-    DateTimeOffset LastSeen,
-    DateTimeOffset? ConfirmedAt,
-    DateTimeOffset? LastNotifiedAt,
-    DateTimeOffset? ClearedAt,
-    DateTimeOffset? AckedAt,
-    string Message,
-    long? LastRunId);
 
 internal sealed record DeliveryJson(
     long Id,

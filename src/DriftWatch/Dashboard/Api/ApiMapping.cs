@@ -1,4 +1,3 @@
-using DriftWatch.Alerts;
 using DriftWatch.Core.Alerting;
 using DriftWatch.Core.History;
 using DriftWatch.Dashboard.Data;
@@ -21,29 +20,12 @@ internal static class ApiMapping
             pair.Config?.Y,
             pair.Tags,
             pair.Config is not null,
-            Finite(pair.DeltaR),
-            Finite(pair.SlopeRatio),
+            JsonContract.Finite(pair.DeltaR),
+            JsonContract.Finite(pair.SlopeRatio),
             pair.OpenAlerts.Count,
             pair.WorstOpenSeverity,
-            pair.Latest is null ? null : ToJson(pair.Latest),
+            pair.Latest is null ? null : RunJson.Of(pair.Latest),
             pair.Baseline is null ? null : ToJson(pair.Baseline));
-    }
-
-    public static RunJson ToJson(RunRecord run)
-    {
-        ArgumentNullException.ThrowIfNull(run);
-        return new RunJson(
-            run.Id,
-            run.StartedAt,
-            run.FinishedAt,
-            Math.Max(0, (run.FinishedAt - run.StartedAt).TotalSeconds),
-            JsonContract.Name(run.Status),
-            run.Error,
-            run.SampleMethod,
-            run.Profile is null ? null : JsonContract.ToJson(run.Profile),
-            [.. run.Findings.Select(JsonContract.ToJson)],
-            WindowJson.Of(run.SourceFigures),
-            JudgedAgainstJson.Of(run.JudgedAgainst));
     }
 
     public static BaselineJson ToJson(StoredBaseline baseline)
@@ -56,17 +38,9 @@ internal static class ApiMapping
             baseline.CoversTo,
             baseline.RunCount,
             baseline.Accepted,
-            Finite(baseline.MeanRunUsed),
+            JsonContract.Finite(baseline.MeanRunUsed),
             baseline.Points.UsedCount,
             JsonContract.ToJson(baseline.Profile));
-    }
-
-    public static AlertJson ToJson(AlertState alert)
-    {
-        ArgumentNullException.ThrowIfNull(alert);
-        return new AlertJson(
-            alert.Id, alert.Pair, alert.Kind, alert.Severity, alert.Status, alert.ConsecutiveRuns, alert.FirstSeen, alert.LastSeen,
-            alert.ConfirmedAt, alert.LastNotifiedAt, alert.ClearedAt, alert.AckedAt, alert.Message, alert.LastRunId);
     }
 
     public static DeliveryJson ToJson(OutboxEntry entry)
@@ -89,8 +63,6 @@ internal static class ApiMapping
     public static AlertsResponse ToJson(AlertsOverview overview, DateTimeOffset now)
     {
         ArgumentNullException.ThrowIfNull(overview);
-        return new AlertsResponse(now, overview.ClearedSince, [.. overview.Open.Select(ToJson)], [.. overview.Cleared.Select(ToJson)], [.. overview.Deliveries.Select(ToJson)]);
+        return new AlertsResponse(now, overview.ClearedSince, [.. overview.Open.Select(AlertJson.Of)], [.. overview.Cleared.Select(AlertJson.Of)], [.. overview.Deliveries.Select(ToJson)]);
     }
-
-    private static double? Finite(double? value) => value is { } v && double.IsFinite(v) ? v : null;
 }

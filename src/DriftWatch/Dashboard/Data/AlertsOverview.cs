@@ -1,4 +1,3 @@
-using DriftWatch.Alerts;
 using DriftWatch.Core.Alerting;
 
 namespace DriftWatch.Dashboard.Data;

@@ -8,7 +8,7 @@ namespace DriftWatch.Dashboard.Data;
 /// Reads what the pages and the API show from the history and alert stores. Never writes: the dashboard is a
 /// window on what the checks recorded. Pairs are the configured ones plus any the store still has history for.
 /// </summary>
-internal sealed class DashboardReader(DriftWatchConfig config, IHistoryStore history, IAlertStore alerts, TimeProvider time)
+internal sealed class DashboardReader(DriftWatchConfig config, IHistoryStore history, IAlertStore alerts, IOutboxStore outbox, TimeProvider time)
 {
     public const int DefaultPageSize = 50;
 
@@ -107,11 +107,11 @@ internal sealed class DashboardReader(DriftWatchConfig config, IHistoryStore his
     {
         var since = time.GetUtcNow() - RecentAlerts;
         var listed = await alerts.ListAlertsAsync(since, MaxAlerts, cancellationToken, pair);
-        var outbox = await alerts.ListOutboxAsync(unsentOnly: false, MaxDeliveries, cancellationToken);
+        var deliveries = await outbox.ListOutboxAsync(unsentOnly: false, MaxDeliveries, cancellationToken);
         return new AlertsOverview(
             [.. listed.Where(a => a.IsOpen).OrderByDescending(a => a.Severity).ThenByDescending(a => a.LastSeen)],
             [.. listed.Where(a => !a.IsOpen).OrderByDescending(a => a.ClearedAt)],
             since,
-            outbox);
+            deliveries);
     }
 }

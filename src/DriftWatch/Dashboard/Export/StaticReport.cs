@@ -19,21 +19,22 @@ internal static class StaticReport
     public const int MaxRunsPerPage = 2000;
 
     public static Task<StaticReportResult> WriteAsync(
-        DriftWatchConfig config, IHistoryStore history, IAlertStore alerts, string outDir, string? pair, CancellationToken cancellationToken) =>
-        WriteAsync(config, history, alerts, outDir, pair, TimeProvider.System, cancellationToken);
+        DriftWatchConfig config, IHistoryStore history, IAlertStore alerts, IOutboxStore outbox, string outDir, string? pair, CancellationToken cancellationToken) =>
+        WriteAsync(config, history, alerts, outbox, outDir, pair, TimeProvider.System, cancellationToken);
 
     /// <param name="pair">Only this pair (its page, the overview and the alerts narrowed to it); null for all.</param>
     /// <exception cref="KeyNotFoundException">The pair is neither configured nor in the store.</exception>
     public static async Task<StaticReportResult> WriteAsync(
-        DriftWatchConfig config, IHistoryStore history, IAlertStore alerts, string outDir, string? pair, TimeProvider time, CancellationToken cancellationToken)
+        DriftWatchConfig config, IHistoryStore history, IAlertStore alerts, IOutboxStore outbox, string outDir, string? pair, TimeProvider time, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(config);
         ArgumentNullException.ThrowIfNull(history);
         ArgumentNullException.ThrowIfNull(alerts);
+        ArgumentNullException.ThrowIfNull(outbox);
         ArgumentException.ThrowIfNullOrWhiteSpace(outDir);
         ArgumentNullException.ThrowIfNull(time);
 
-        var reader = new DashboardReader(config, history, alerts, time);
+        var reader = new DashboardReader(config, history, alerts, outbox, time);
         var now = time.GetUtcNow();
         var rows = await reader.GetOverviewAsync(cancellationToken);
         if (pair is not null)

@@ -1,5 +1,4 @@
 using System.Globalization;
-using DriftWatch.Alerts;
 using DriftWatch.Core.Alerting;
 using DriftWatch.Dashboard.Data;
 using DriftWatch.Output;

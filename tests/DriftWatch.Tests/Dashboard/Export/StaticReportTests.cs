@@ -13,7 +13,7 @@ public sealed class StaticReportTests(DashboardFixture fixture) : IDisposable
     public async Task WriteAsync_AllPairs_SelfContainedPagesWhoseLinksResolve()
     {
         var scenario = fixture.Scenario;
-        var result = await StaticReport.WriteAsync(scenario.Config, scenario.History, scenario.Alerts, _out, null, DashboardScenario.Clock, CancellationToken.None);
+        var result = await StaticReport.WriteAsync(scenario.Config, scenario.History, scenario.Alerts, scenario.Outbox, _out, null, DashboardScenario.Clock, CancellationToken.None);
 
         Assert.Equal(2 + scenario.Config.Pairs.Count, result.Files.Count);
         Assert.Contains("index.html", result.Files);
@@ -47,7 +47,7 @@ public sealed class StaticReportTests(DashboardFixture fixture) : IDisposable
     public async Task WriteAsync_OnePair_WritesItsPageAndNarrowsOverviewAndAlerts()
     {
         var scenario = fixture.Scenario;
-        var result = await StaticReport.WriteAsync(scenario.Config, scenario.History, scenario.Alerts, _out, DashboardScenario.Failing, DashboardScenario.Clock, CancellationToken.None);
+        var result = await StaticReport.WriteAsync(scenario.Config, scenario.History, scenario.Alerts, scenario.Outbox, _out, DashboardScenario.Failing, DashboardScenario.Clock, CancellationToken.None);
 
         Assert.Equal(["index.html", "alerts.html", "pairs/meters.power_vs_load.html"], result.Files);
         var index = await File.ReadAllTextAsync(Path.Combine(_out, "index.html"));
@@ -62,7 +62,7 @@ public sealed class StaticReportTests(DashboardFixture fixture) : IDisposable
     {
         var scenario = fixture.Scenario;
         var error = await Assert.ThrowsAsync<KeyNotFoundException>(() =>
-            StaticReport.WriteAsync(scenario.Config, scenario.History, scenario.Alerts, _out, "nope", DashboardScenario.Clock, CancellationToken.None));
+            StaticReport.WriteAsync(scenario.Config, scenario.History, scenario.Alerts, scenario.Outbox, _out, "nope", DashboardScenario.Clock, CancellationToken.None));
         Assert.Contains("'nope'", error.Message, StringComparison.Ordinal);
     }
 

@@ -1,6 +1,0 @@
-using DriftWatch.Core.Configuration;
-
-namespace DriftWatch.Alerts;
-
-/// <summary>The items one mailing list receives in one cycle: they become one message.</summary>
-internal sealed record AddressedDigest(MailingListConfig List, IReadOnlyList<DigestItem> Items);

@@ -1,4 +1,0 @@
-namespace DriftWatch.Alerts;
-
-/// <summary>A pair whose notifications are held back until <paramref name="Until"/>; states are still tracked.</summary>
-internal sealed record PairSnooze(string Pair, DateTimeOffset Until, DateTimeOffset CreatedAt, string? Reason);
