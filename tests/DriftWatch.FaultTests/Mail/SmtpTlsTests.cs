@@ -1,5 +1,6 @@
-using DriftWatch.Alerts;
-using DriftWatch.Alerts.Email;
+using DriftWatch.Alerting.Channels;
+using DriftWatch.Alerting.Channels.Smtp;
+using DriftWatch.Core.Alerting;
 using DriftWatch.Core.Configuration;
 using DriftWatch.FaultTests.Infrastructure;
 using MimeKit;

@@ -1,7 +1,7 @@
-using DriftWatch.Cli;
+using DriftWatch.Hosting;
 using DriftWatch.Configuration;
 using DriftWatch.Core.Findings;
-using DriftWatch.IntegrationTests.Alerts;
+using DriftWatch.IntegrationTests.Alerting;
 using DriftWatch.Monitoring;
 using Microsoft.Extensions.DependencyInjection;
 
@@ -41,7 +41,7 @@ internal static class PlantedCopyCheck
         Assert.True(loaded.Ok, string.Join("\n", loaded.Errors));
         var config = loaded.Config!;
 
-        await using var services = await CliServices.StartAsync(config, verbose: false, CancellationToken.None);
+        await using var services = await OneShotServices.StartAsync(config, verbose: false, CancellationToken.None);
         var pass = services.GetRequiredService<CheckPass>();
         for (var i = 0; i < 2; i++)
         {
