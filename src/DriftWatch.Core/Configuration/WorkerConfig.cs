@@ -14,4 +14,7 @@ public sealed record WorkerConfig
     /// worker claims, so a restarted worker takes its own claims back at once. Null: the host name.
     /// </summary>
     public string? Id { get; init; }
+
+    /// <summary>The spool of runs the store could not take (worker.spool).</summary>
+    public WorkerSpoolConfig Spool { get; init; } = new();
 }
