@@ -123,5 +123,9 @@ internal static class FullConfig
         worker:
           stop_grace: 45s
           id: monitor-1
+          spool:
+            path: /var/lib/driftwatch/spool
+            max_runs: 5000
+            max_bytes: 104857600
         """;
 }
