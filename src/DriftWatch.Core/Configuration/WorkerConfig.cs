@@ -20,4 +20,7 @@ public sealed record WorkerConfig
 
     /// <summary>How often the worker evaluates alerts over the new runs (and then wakes the outbox).</summary>
     public TimeSpan AlertEvery { get; init; } = DefaultAlertEvery;
+
+    /// <summary>The spool of runs the store could not take (worker.spool).</summary>
+    public WorkerSpoolConfig Spool { get; init; } = new();
 }

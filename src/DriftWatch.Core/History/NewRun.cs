@@ -18,4 +18,11 @@ public sealed record NewRun(
 {
     /// <summary>The baseline the run was judged against; null without one (or for a failed run).</summary>
     public BaselineSummary? JudgedAgainst { get; init; }
+
+    /// <summary>
+    /// Names this run across processes (a GUID chosen when the check starts): the store writes a run with a given
+    /// key at most once, so a run written again after a crash (from the worker's spool) is not duplicated. Null for
+    /// runs that are written once and only once (one-shot commands).
+    /// </summary>
+    public string? RunKey { get; init; }
 }

@@ -14,4 +14,11 @@ public enum RunStatus
     /// not health. Counts toward check_failing like a failure and never clears an alert.
     /// </summary>
     Unmeasurable,
+
+    /// <summary>
+    /// The check started but its process ended before it could finish or record anything (a crash, a kill, a power
+    /// cut); recorded at the worker's next start from the marker the check left. Says nothing about the pair: it
+    /// counts toward check_failing like a failure and never clears an alert.
+    /// </summary>
+    Interrupted,
 }

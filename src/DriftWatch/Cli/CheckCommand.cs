@@ -50,6 +50,7 @@ internal static class CheckCommand
                 {
                     RunStatus.Failed => $"  failed  {r.Pair.Name}: {r.Error}",
                     RunStatus.Unmeasurable => $"  unmeasurable {r.Pair.Name}: {r.Error}",
+                    RunStatus.Interrupted => $"  interrupted {r.Pair.Name}: {r.Error}",
                     _ => $"  checked {r.Pair.Name} ({r.Findings.Count} finding{(r.Findings.Count == 1 ? "" : "s")})",
                 }));
             console.Error.WriteLine($"Checking {pairs.Count} pair{(pairs.Count == 1 ? "" : "s")}…");
@@ -82,7 +83,7 @@ internal static class CheckCommand
     /// </summary>
     internal static int ExitCodeOf(IReadOnlyList<PairCheckResult> results)
     {
-        if (results.Any(r => r.Status is RunStatus.Failed or RunStatus.Unmeasurable))
+        if (results.Any(r => r.Status is RunStatus.Failed or RunStatus.Unmeasurable or RunStatus.Interrupted))
         {
             return ExitCodes.RunFailures;
         }

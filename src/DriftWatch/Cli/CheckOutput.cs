@@ -30,6 +30,7 @@ internal static class CheckOutput
                 {
                     RunStatus.Failed => "[red]check failed[/]",
                     RunStatus.Unmeasurable => "[red]nothing measured[/]",
+                    RunStatus.Interrupted => "[red]cut off[/]",
                     _ => "[green]none[/]",
                 } : SeverityStyle.Markup(worst.Severity) + " " + Markup.Escape(JsonContract.Name(worst.Kind)));
         }
@@ -52,6 +53,7 @@ internal static class CheckOutput
     {
         RunStatus.Failed => "[red]failed[/]",
         RunStatus.Unmeasurable => "[red]unmeasurable[/]",
+        RunStatus.Interrupted => "[red]interrupted[/]",
         _ => r.HasBaseline ? "ok" : "ok [grey](no baseline yet)[/]",
     };
 

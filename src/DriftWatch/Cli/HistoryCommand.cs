@@ -66,6 +66,7 @@ internal static class HistoryCommand
                     {
                         RunStatus.Failed => "[red]failed[/]",
                         RunStatus.Unmeasurable => "[red]unmeasurable[/]",
+                        RunStatus.Interrupted => "[red]interrupted[/]",
                         _ => "ok",
                     },
                     Readable.Count(p?.NUsed),

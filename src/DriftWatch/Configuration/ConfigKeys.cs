@@ -65,7 +65,9 @@ internal static class ConfigKeys
 
     public static readonly KeyLevel Logging = new("logging", ["format", "file", "level"]);
 
-    public static readonly KeyLevel Worker = new("worker", ["stop_grace", "id", "alert_every"]);
+    public static readonly KeyLevel WorkerSpool = new("worker.spool", ["path", "max_runs", "max_bytes"]);
+
+    public static readonly KeyLevel Worker = new("worker", ("stop_grace", null), ("id", null), ("alert_every", null), ("spool", WorkerSpool));
 
     public static readonly KeyLevel Root = new(
         "root",

@@ -17,9 +17,14 @@ internal static class WorkerSection
     /// <summary>Longer would hold a confirmed alert back for more than an hour.</summary>
     public static readonly TimeSpan MaxAlertEvery = TimeSpan.FromHours(1);
 
-    public static WorkerConfig Read(MappingReader? reader)
+    /// <summary>A spool smaller than this cannot hold one run with its points.</summary>
+    public const long MinSpoolBytes = 1024 * 1024;
+
+    public static WorkerConfig Read(ConfigContext context, MappingReader? reader)
     {
-        var defaults = new WorkerConfig();
+        ArgumentNullException.ThrowIfNull(context);
+        // The spool's folder is always resolved here, where relative paths have the configuration file's folder to start from.
+        var defaults = new WorkerConfig { Spool = new WorkerSpoolConfig { Path = context.ResolvePath(WorkerSpoolConfig.DefaultFolderName) } };
         if (reader is null)
         {
             return defaults;
@@ -34,7 +39,29 @@ internal static class WorkerSection
         }
 
         var alertEvery = reader.Duration("alert_every", MinAlertEvery, MaxAlertEvery) ?? defaults.AlertEvery;
+        var spool = ReadSpool(context, reader.Mapping("spool", ConfigKeys.WorkerSpool));
         reader.Done();
-        return new WorkerConfig { StopGrace = grace, Id = id, AlertEvery = alertEvery };
+        return new WorkerConfig { StopGrace = grace, Id = id, Spool = spool, AlertEvery = alertEvery };
+    }
+
+    private static WorkerSpoolConfig ReadSpool(ConfigContext context, MappingReader? reader)
+    {
+        var defaults = new WorkerSpoolConfig { Path = context.ResolvePath(WorkerSpoolConfig.DefaultFolderName) };
+        if (reader is null)
+        {
+            return defaults;
+        }
+
+        var path = reader.Text("path");
+        if (path is not null && (path.Length == 0 || path.Any(char.IsControl)))
+        {
+            reader.Error("path", "must be a folder path without control characters");
+            path = null;
+        }
+
+        var maxRuns = reader.Int("max_runs", 1, 10_000_000) ?? defaults.MaxRuns;
+        var maxBytes = reader.Long("max_bytes", MinSpoolBytes, long.MaxValue) ?? defaults.MaxBytes;
+        reader.Done();
+        return new WorkerSpoolConfig { Path = path is null ? defaults.Path : context.ResolvePath(path), MaxRuns = maxRuns, MaxBytes = maxBytes };
     }
 }

@@ -115,6 +115,12 @@ internal static class DashboardEndpoints
             catch (DbException ex)
             {
                 logger.LogWarning(ex, "Metrics could not be read from the store");
+                if (metrics.HasWorker)
+                {
+                    // The worker's own figures (the spool filling up above all) matter most while the store is down.
+                    return Results.Text(metrics.RenderWorkerOnly(), OpenMetricsText.ContentType);
+                }
+
                 return Results.Text("the store cannot be read: " + ex.Message + "\n", "text/plain; charset=utf-8", statusCode: StatusCodes.Status503ServiceUnavailable);
             }
         });

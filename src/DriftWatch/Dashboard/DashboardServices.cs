@@ -34,11 +34,13 @@ internal static class DashboardServices
             sp.GetRequiredService<IStoreDatabase>(),
             sp.GetRequiredService<IAlertStore>(),
             sp.GetRequiredService<DriftWatchConfig>(),
-            sp.GetRequiredService<TimeProvider>()));
+            sp.GetRequiredService<TimeProvider>(),
+            sp.GetService<IWorkerStatus>()));
         services.AddSingleton(sp => new HealthCheck(
             sp.GetRequiredService<IHistoryStore>(),
             sp.GetRequiredService<TimeProvider>(),
-            sp.GetService<IWorkerHealth>()));
+            sp.GetService<IWorkerHealth>(),
+            sp.GetService<IWorkerStatus>()));
         return services;
     }
 }

@@ -5,6 +5,7 @@ using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Profiling;
 using DriftWatch.Monitoring;
 using DriftWatch.Sources;
+using DriftWatch.Spool;
 using DriftWatch.Store;
 using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Logging;
@@ -34,6 +35,12 @@ internal static class DriftWatchServices
             sp.GetRequiredService<IHistoryStore>(),
             Profiler.Profile,
             sp.GetRequiredService<ILogger<BaselineService>>()));
+        // The worker adds a spool (WorkerHost); one-shot commands record straight to the store.
+        services.AddSingleton(sp => new RunRecorder(
+            sp.GetRequiredService<IHistoryStore>(),
+            sp.GetRequiredService<ILogger<RunRecorder>>(),
+            sp.GetService<RunSpool>(),
+            sp.GetService<CheckMarkers>()));
         services.AddSingleton<PairChecker>();
         services.AddSingleton<MonitorCycle>();
         services.AddSingleton<CheckPass>();

@@ -2,6 +2,7 @@ using System.Net;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Dashboard;
 using DriftWatch.Scheduling;
+using DriftWatch.Spool;
 using Microsoft.AspNetCore.Builder;
 using Microsoft.AspNetCore.Hosting;
 using Microsoft.Extensions.DependencyInjection;
@@ -36,6 +37,17 @@ internal static class WorkerHost
 
         var time = options.Time ?? TimeProvider.System;
         builder.Services.AddDriftWatch(config, time, asWorker: true);
+        builder.Services.AddSingleton(new LiveConfig(config, InitialHash(config), time.GetUtcNow()));
+
+        // Runs the store cannot take wait in the spool; checks leave start markers there. The spool service turns
+        // markers left by the previous process into interrupted runs before the scheduler (registered after it) starts.
+        var spool = SpoolOptions.From(config);
+        builder.Services.AddSingleton(spool);
+        builder.Services.AddSingleton<RunSpool>();
+        builder.Services.AddSingleton<CheckMarkers>();
+        builder.Services.AddSingleton<SpoolDrain>();
+        builder.Services.AddHostedService<SpoolService>();
+        builder.Services.AddHostedService<ConfigReloadService>();
         builder.Services.AddQuartz(quartz =>
         {
             quartz.UseTimeProvider(time);
@@ -48,6 +60,7 @@ internal static class WorkerHost
         });
 
         builder.Services.AddSingleton<IWorkerHealth, SchedulerHealth>();
+        builder.Services.AddSingleton<IWorkerStatus, WorkerStatus>();
         if (config.Dashboard.Enabled)
         {
             DashboardServices.Add(builder.Services, config.Dashboard);
@@ -65,6 +78,19 @@ internal static class WorkerHost
         }
 
         return app;
+    }
+
+    /// <summary>The hash of the file's text the configuration was read from ("none" for a configuration not read from a file).</summary>
+    private static string InitialHash(DriftWatchConfig config)
+    {
+        try
+        {
+            return config.FilePath is { } file ? LiveConfig.Hash(File.ReadAllText(file)) : "none";
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+        {
+            return "unreadable";
+        }
     }
 
     /// <summary>Where <c>run</c> listens: the dashboard's address and port, or an ephemeral loopback port without a dashboard.</summary>

@@ -2,7 +2,9 @@ using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Findings;
 using DriftWatch.Core.History;
 using DriftWatch.Core.Profiling;
+using DriftWatch.Hosting;
 using DriftWatch.Sources;
+using DriftWatch.Spool;
 using DriftWatch.Store;
 using Microsoft.Extensions.Logging;
 using Serilog.Context;
@@ -21,13 +23,17 @@ internal sealed class PairChecker(
     IHistoryStore store,
     BaselineService baselines,
     TimeProvider time,
-    ILogger<PairChecker> logger)
+    RunRecorder recorder,
+    ILogger<PairChecker> logger,
+    LiveConfig? live = null)
 {
     public async Task<PairCheckResult> CheckAsync(PairConfig pair, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(pair);
         using var _ = LogContext.PushProperty("Pair", pair.Name);
         var startedAt = time.GetUtcNow();
+        // A marker on the local disk until the run is recorded: a crash in between becomes an interrupted run.
+        var runKey = recorder.Begin(pair.Name, startedAt);
         RelationshipProfile? profile = null;
         IReadOnlyList<Finding> findings = [];
         SampledPair? sampled = null;
@@ -37,7 +43,7 @@ internal sealed class PairChecker(
         var hasStoredBaseline = false;
         try
         {
-            var source = config.FindSource(pair.Source)
+            var source = (live?.Current ?? config).FindSource(pair.Source)
                 ?? throw new SourceException(SourceFailure.QueryError, $"pair '{pair.Name}': source '{pair.Source}' is not configured");
             var adapter = sources.Create(source);
             sampled = await adapter.SampleAsync(pair, startedAt, cancellationToken);
@@ -94,18 +100,8 @@ internal sealed class PairChecker(
         {
             JudgedAgainst = status == RunStatus.Succeeded && baseline is not null ? BaselineSummary.Of(baseline) : null,
         };
-        long runId = 0;
-        try
-        {
-            // The shutdown token is not passed: a finished check is worth one short write.
-            runId = await store.RecordRunAsync(run, CancellationToken.None);
-        }
-#pragma warning disable CA1031 // The store being down must not crash the worker; the next run tries again.
-        catch (Exception ex)
-#pragma warning restore CA1031
-        {
-            logger.LogError(ex, "Could not record the run of {Pair} in the store", pair.Name);
-        }
+        // The store, or the worker's spool when the store cannot take it (see RunRecorder).
+        var runId = await recorder.RecordAsync(run with { RunKey = runKey });
 
         if (status == RunStatus.Succeeded)
         {

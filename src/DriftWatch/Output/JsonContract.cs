@@ -11,7 +11,7 @@ namespace DriftWatch.Output;
 /// The one JSON shape of profiles and findings that every outward surface shares (<c>profile</c>,
 /// <c>check</c>, <c>history</c>, the dashboard API): snake_case names, snake_case enum strings, null for
 /// an undefined figure and never NaN or infinity. A run's <c>status</c> is <see cref="Name{T}"/> of its
-/// <see cref="Core.History.RunStatus"/>: "succeeded", "failed" or "unmeasurable", the last two with the reason in
+/// <see cref="Core.History.RunStatus"/>: "succeeded", "failed", "unmeasurable" or "interrupted", the last three with the reason in
 /// <c>error</c>; <c>profile</c> says "unmeasurable" (the reason, or null) for its current extract.
 /// </summary>
 internal static class JsonContract

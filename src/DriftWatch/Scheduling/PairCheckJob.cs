@@ -1,4 +1,3 @@
-using DriftWatch.Core.Configuration;
 using DriftWatch.Hosting;
 using DriftWatch.Monitoring;
 using Microsoft.Extensions.Logging;
@@ -11,7 +10,7 @@ namespace DriftWatch.Scheduling;
 /// and each pair has its own job, so a slow run of a pair delays that pair's next run instead of overlapping it.
 /// </summary>
 [DisallowConcurrentExecution]
-internal sealed class PairCheckJob(DriftWatchConfig config, PairChecker checker, StopGrace stop, ILogger<PairCheckJob> logger) : IJob
+internal sealed class PairCheckJob(LiveConfig config, PairChecker checker, StopGrace stop, ILogger<PairCheckJob> logger) : IJob
 {
     public const string PairKey = "pair";
 
@@ -19,7 +18,8 @@ internal sealed class PairCheckJob(DriftWatchConfig config, PairChecker checker,
     {
         ArgumentNullException.ThrowIfNull(context);
         var name = context.MergedJobDataMap.GetString(PairKey);
-        var pair = name is null ? null : config.FindPair(name);
+        // The configuration in force now: a reload may have changed the pair since it was scheduled.
+        var pair = name is null ? null : config.Current.FindPair(name);
         if (pair is null)
         {
             return;

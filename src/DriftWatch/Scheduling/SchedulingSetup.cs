@@ -12,15 +12,9 @@ internal static class SchedulingSetup
         ArgumentNullException.ThrowIfNull(config);
         foreach (var pair in config.Pairs)
         {
-            var jobKey = new JobKey(pair.Name, "pairs");
+            var jobKey = PairSchedules.JobKeyOf(pair.Name);
             quartz.AddJob<PairCheckJob>(job => job.WithIdentity(jobKey).UsingJobData(PairCheckJob.PairKey, pair.Name).WithDescription($"check {pair.Name}"));
-            quartz.AddTrigger(trigger => trigger
-                .ForJob(jobKey)
-                .WithIdentity(pair.Name, "pairs")
-                .WithSchedule(CronScheduleBuilder.Create(pair.Schedule)
-                    .InTimeZone(TimeZoneInfo.Utc)
-                    // After downtime a pair runs once, not once per missed slot.
-                    .WithMisfireInstruction(CronTriggerMisfireInstruction.FireAndProceed)));
+            quartz.AddTrigger(trigger => trigger.ForJob(jobKey).WithIdentity(PairSchedules.TriggerKeyOf(pair.Name)).WithSchedule(PairSchedules.Cron(pair)));
         }
 
         var maintenanceKey = new JobKey("store-retention", "maintenance");

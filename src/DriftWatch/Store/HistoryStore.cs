@@ -34,6 +34,22 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
         // same statement a store before migration 005 took.
         var judged = run.JudgedAgainst is null ? string.Empty : ", baseline_json";
         var judgedValue = run.JudgedAgainst is null ? string.Empty : ", @BaselineJson";
+        if (run.RunKey is not null)
+        {
+            // Written at most once per key (migration 009's unique index backs this): a run the spool writes again
+            // after a crash between the store write and the spool delete returns the id it already has.
+            var existing = await connection.ExecuteScalarAsync<long?>(new CommandDefinition(
+                "SELECT id FROM runs WHERE run_key = @RunKey", new { run.RunKey }, transaction, cancellationToken: cancellationToken));
+            if (existing is { } known)
+            {
+                await transaction.CommitAsync(cancellationToken);
+                return known;
+            }
+
+            judged += ", run_key";
+            judgedValue += ", @RunKey";
+        }
+
         var id = await connection.ExecuteScalarAsync<long>(new CommandDefinition(
             $"""
             INSERT INTO runs (pair, started_at_ms, finished_at_ms, status, error, sample_method, profile_json, source_figures_json, points{judged})
@@ -52,6 +68,7 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
                 BaselineJson = run.JudgedAgainst is null ? null : StoreJson.Serialize(run.JudgedAgainst),
                 FiguresJson = run.SourceFigures is null ? null : StoreJson.Serialize(run.SourceFigures),
                 Points = points,
+                run.RunKey,
             },
             transaction,
             cancellationToken: cancellationToken));

@@ -72,7 +72,7 @@ public abstract partial class AlertVocabularyMigrationContract : IAsyncLifetime
         var applied = await new MigrationRunner(Database).MigrateAsync(CancellationToken.None);
 
         // Every script after 005 runs, 007 (the owner of outbox claims) over the outbox rows this old store holds.
-        Assert.Equal(["006_alert_vocabulary", "007_outbox_claims"], applied);
+        Assert.Equal(["006_alert_vocabulary", "007_outbox_claims", "009_run_keys"], applied);
         var store = new AlertStore(Database);
         var open = await store.GetOpenAlertsAsync(null, CancellationToken.None);
         Assert.Equal([(1L, AlertStatus.Watching), (2L, AlertStatus.Confirmed)], open.Select(a => (a.Id, a.Status)));

@@ -127,5 +127,9 @@ internal static class FullConfig
           stop_grace: 45s
           id: monitor-1
           alert_every: 10s
+          spool:
+            path: /var/lib/driftwatch/spool
+            max_runs: 5000
+            max_bytes: 104857600
         """;
 }

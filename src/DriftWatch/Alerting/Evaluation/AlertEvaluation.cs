@@ -19,7 +19,8 @@ internal sealed class AlertEvaluation(
     RunFeed feed,
     IHistoryStore history,
     AlertCycleProcessor processor,
-    ILogger<AlertEvaluation> logger) : IDisposable
+    ILogger<AlertEvaluation> logger,
+    Hosting.LiveConfig? live = null) : IDisposable
 {
     public const int BatchSize = 500;
 
@@ -98,7 +99,8 @@ internal sealed class AlertEvaluation(
         var unreadable = 0;
         foreach (var (id, pairName) in cycle)
         {
-            var pair = config.FindPair(pairName);
+            // The configuration in force (a reload may have added or removed pairs since the start).
+            var pair = (live?.Current ?? config).FindPair(pairName);
             if (pair is null)
             {
                 // A pair removed from the configuration: its old runs no longer alert anyone.
@@ -202,6 +204,6 @@ internal sealed class AlertEvaluation(
     {
         var lookback = Math.Max(1, config.Alerting.CheckFailingAfter) + 1;
         var recent = await history.GetRunsAsync(pair.Name, lookback, includePoints: false, cancellationToken, before: run.StartedAt.AddMilliseconds(1));
-        return recent.Where(r => r.Id <= run.Id).TakeWhile(r => r.Status is RunStatus.Failed or RunStatus.Unmeasurable).Count();
+        return recent.Where(r => r.Id <= run.Id).TakeWhile(r => r.Status is RunStatus.Failed or RunStatus.Unmeasurable or RunStatus.Interrupted).Count();
     }
 }

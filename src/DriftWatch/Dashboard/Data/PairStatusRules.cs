@@ -20,7 +20,8 @@ internal static class PairStatusRules
             return openAlerts.Any(a => a.Status == AlertStatus.Confirmed) ? PairStatus.Confirmed : PairStatus.NoRuns;
         }
 
-        if (latest.Status == RunStatus.Failed)
+        // A check cut off by a crash or a stop says nothing about the pair, only that it went unchecked: failing.
+        if (latest.Status is RunStatus.Failed or RunStatus.Interrupted)
         {
             return PairStatus.Failing;
         }

@@ -6,6 +6,14 @@ namespace DriftWatch.Dashboard.Health;
 /// <summary>The body of <c>/healthz</c>; snake_case in JSON.</summary>
 internal sealed record HealthReport(string Status, DateTimeOffset CheckedAt, StoreHealth Store, SchedulerHealth Scheduler)
 {
+    /// <summary>Runs waiting for the store (the worker only; absent when no worker runs in this process).</summary>
+    [System.Text.Json.Serialization.JsonIgnore(Condition = System.Text.Json.Serialization.JsonIgnoreCondition.WhenWritingNull)]
+    public Spool.SpoolStatus? Spool { get; init; }
+
+    /// <summary>The configuration in force and the last refused reload (the worker only).</summary>
+    [System.Text.Json.Serialization.JsonIgnore(Condition = System.Text.Json.Serialization.JsonIgnoreCondition.WhenWritingNull)]
+    public Hosting.ConfigStatus? Configuration { get; init; }
+
     [System.Text.Json.Serialization.JsonIgnore]
     public bool Healthy => Status == "ok";
 }
@@ -16,7 +24,8 @@ internal sealed record StoreHealth(bool Reachable, string? Error);
 internal sealed record SchedulerHealth(bool Checked, bool? Running);
 
 /// <summary>Healthy when the store answers within <see cref="StoreTimeout"/> and the scheduler (if any) runs.</summary>
-internal sealed class HealthCheck(IHistoryStore history, TimeProvider time, IWorkerHealth? worker)
+/// A full spool is unhealthy too: runs are being lost.
+internal sealed class HealthCheck(IHistoryStore history, TimeProvider time, IWorkerHealth? worker, IWorkerStatus? status = null)
 {
     public static readonly TimeSpan StoreTimeout = TimeSpan.FromSeconds(5);
 
@@ -41,8 +50,13 @@ internal sealed class HealthCheck(IHistoryStore history, TimeProvider time, IWor
             }
         }
 
-        var healthy = store.Reachable && running != false;
-        return new HealthReport(healthy ? "ok" : "unhealthy", time.GetUtcNow(), store, new SchedulerHealth(worker is not null, running));
+        var spool = status?.Spool;
+        var healthy = store.Reachable && running != false && spool is not { Full: true };
+        return new HealthReport(healthy ? "ok" : "unhealthy", time.GetUtcNow(), store, new SchedulerHealth(worker is not null, running))
+        {
+            Spool = spool,
+            Configuration = status?.Configuration,
+        };
     }
 
     private async Task<StoreHealth> CheckStoreAsync(CancellationToken cancellationToken)

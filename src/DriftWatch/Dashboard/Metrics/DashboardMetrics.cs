@@ -21,8 +21,14 @@ namespace DriftWatch.Dashboard.Metrics;
 /// The aggregate is one SQL statement over the runs table (both dialects), because the history store's
 /// interface has no aggregate query and loading every run would not scale.
 /// </summary>
-internal sealed class DashboardMetrics(IStoreDatabase database, IAlertStore alerts, DriftWatchConfig config, TimeProvider time)
+/// <item><c>driftwatch_spooled_runs</c>, <c>driftwatch_spool_bytes</c>, <c>driftwatch_spool_full</c> (gauges) and
+/// <c>driftwatch_spool_dropped_runs_total</c> (counter): the worker's spool (<see cref="IWorkerStatus"/>), read in-process,
+/// so they are served even while the store cannot be read (<see cref="RenderWorkerOnly"/>).</item>
+internal sealed class DashboardMetrics(IStoreDatabase database, IAlertStore alerts, DriftWatchConfig config, TimeProvider time, IWorkerStatus? worker = null)
 {
+    /// <summary>True when this process runs the worker, whose own figures can be served without the store.</summary>
+    public bool HasWorker => worker is not null;
+
     /// <summary>Upper bounds in seconds; fixed, since buckets that change between scrapes break aggregation (spec).</summary>
     public static readonly double[] DurationBuckets = [0.05, 0.1, 0.25, 0.5, 1, 2.5, 5, 10, 30, 60, 120, 300];
 
@@ -71,7 +77,34 @@ internal sealed class DashboardMetrics(IStoreDatabase database, IAlertStore aler
         text.Sample("driftwatch_check_duration_seconds_count", [], OpenMetricsText.Integer(count));
         text.Sample("driftwatch_check_duration_seconds_sum", [], OpenMetricsText.Float(rows.Sum(r => r.TotalMs) / 1000.0));
         text.Sample("driftwatch_check_duration_seconds_created", [], created);
+        AppendWorker(text);
         return text.Finish();
+    }
+
+    /// <summary>The worker's in-process figures alone: what /metrics serves while the store cannot be read.</summary>
+    public string RenderWorkerOnly()
+    {
+        var text = new OpenMetricsText();
+        AppendWorker(text);
+        return text.Finish();
+    }
+
+    private void AppendWorker(OpenMetricsText text)
+    {
+        if (worker is null)
+        {
+            return;
+        }
+
+        var spool = worker.Spool;
+        text.Family("driftwatch_spooled_runs", "gauge", "Finished runs waiting in the worker's local spool for the store to take them.");
+        text.Sample("driftwatch_spooled_runs", [], OpenMetricsText.Integer(spool.Runs));
+        text.Family("driftwatch_spool_bytes", "gauge", "Bytes the spooled runs take on disk.", "bytes");
+        text.Sample("driftwatch_spool_bytes", [], OpenMetricsText.Integer(spool.Bytes));
+        text.Family("driftwatch_spool_full", "gauge", "1 when the last run offered to the spool did not fit (runs are being lost), else 0.");
+        text.Sample("driftwatch_spool_full", [], OpenMetricsText.Integer(spool.Full ? 1 : 0));
+        text.Family("driftwatch_spool_dropped_runs", "counter", "Runs lost because the spool was full or could not be written, since the worker started.");
+        text.Sample("driftwatch_spool_dropped_runs_total", [], OpenMetricsText.Integer(spool.DroppedRuns));
     }
 
     private async Task<Watermark> GetWatermarkAsync(CancellationToken cancellationToken)

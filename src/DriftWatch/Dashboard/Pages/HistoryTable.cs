@@ -55,7 +55,8 @@ internal static class HistoryTable
         var p = run.Profile;
         var failed = run.Status == RunStatus.Failed;
         var unmeasurable = run.Status == RunStatus.Unmeasurable;
-        html.Open("tr", ("data-run-id", run.Id.ToString(CultureInfo.InvariantCulture)), ("class", failed || unmeasurable ? "run-failed" : null));
+        var interrupted = run.Status == RunStatus.Interrupted;
+        html.Open("tr", ("data-run-id", run.Id.ToString(CultureInfo.InvariantCulture)), ("class", failed || unmeasurable || interrupted ? "run-failed" : null));
         html.Open("td", ("class", "when"));
         html.Element("time", Display.TimeWithSeconds(run.StartedAt), ("datetime", Display.Iso(run.StartedAt)));
         html.Element("span", "took " + Display.Duration(run.FinishedAt - run.StartedAt), ("class", "sub"));
@@ -68,6 +69,10 @@ internal static class HistoryTable
         else if (unmeasurable)
         {
             html.Element("span", "unmeasurable", ("class", "outcome outcome-failed"));
+        }
+        else if (interrupted)
+        {
+            html.Element("span", "interrupted", ("class", "outcome outcome-failed"));
         }
         else if (run.WorstSeverity is { } worst)
         {

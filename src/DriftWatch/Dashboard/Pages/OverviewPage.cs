@@ -193,7 +193,7 @@ internal static class OverviewPage
                 h.Element("span", "not in the configuration (history only)", ("class", "sub"));
             }
 
-            if (row.Latest is { Status: RunStatus.Failed or RunStatus.Unmeasurable, Error: { } error })
+            if (row.Latest is { Status: RunStatus.Failed or RunStatus.Unmeasurable or RunStatus.Interrupted, Error: { } error })
             {
                 h.Element("span", Shorten(error, 140), ("class", "sub error-line"), ("title", error));
             }
