@@ -61,12 +61,7 @@ internal static class HistoryCommand
                 var p = run.Profile;
                 table.AddRow(
                     run.StartedAt.UtcDateTime.ToString("yyyy-MM-dd HH:mm:ss", CultureInfo.InvariantCulture),
-                    run.Status switch
-                    {
-                        RunStatus.Failed => "[red]failed[/]",
-                        RunStatus.Unmeasurable => "[red]unmeasurable[/]",
-                        _ => "ok",
-                    },
+                    RunStatusText.Markup(run.Status),
                     Readable.Count(p?.NUsed),
                     Readable.Number(p?.PearsonR),
                     Readable.Number(p?.SpearmanRho),

@@ -7,7 +7,7 @@ using Quartz;
 namespace DriftWatch.Scheduling;
 
 /// <summary>
-/// The scheduled check of one pair. <see cref="DisallowConcurrentExecutionAttribute"/> is per job key,
+/// The scheduled check of one pair, then an immediate alert evaluation. <see cref="DisallowConcurrentExecutionAttribute"/> is per job key,
 /// and each pair has its own job, so a slow run of a pair delays that pair's next run instead of overlapping it.
 /// </summary>
 [DisallowConcurrentExecution]
@@ -29,5 +29,13 @@ internal sealed class PairCheckJob(DriftWatchConfig config, PairChecker checker,
         using var linked = CancellationTokenSource.CreateLinkedTokenSource(cancellationToken, stop.Expired);
         logger.LogDebug("Check of {Pair} started", pair.Name);
         await checker.CheckAsync(pair, linked.Token);
+
+        // Judge the new run now rather than at the next interval, so alert states (and the /metrics gauge read
+        // from them) follow the checks at once. The alert job refuses concurrent runs: a second request waits
+        // for the running one and then picks up whatever it did not see.
+        if (!linked.IsCancellationRequested)
+        {
+            await context.Scheduler.TriggerJob(SchedulingSetup.AlertJobKey, cancellationToken);
+        }
     }
 }
