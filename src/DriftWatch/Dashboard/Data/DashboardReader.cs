@@ -29,7 +29,7 @@ internal sealed class DashboardReader(DriftWatchConfig config, IHistoryStore his
 
     public TimeProvider Time => time;
 
-    /// <summary>Every pair, worst status first, then by name.</summary>
+    /// <summary>Every pair, worst first by <see cref="OverviewRanking"/>.</summary>
     public async Task<IReadOnlyList<PairSummary>> GetOverviewAsync(CancellationToken cancellationToken)
     {
         var latest = (await history.GetLatestRunsAsync(cancellationToken)).ToDictionary(r => r.Pair, StringComparer.Ordinal);
@@ -44,7 +44,7 @@ internal sealed class DashboardReader(DriftWatchConfig config, IHistoryStore his
             rows.Add(new PairSummary(name, config.FindPair(name), PairStatusRules.Derive(run, pairAlerts, baseline is not null), run, baseline, pairAlerts));
         }
 
-        return [.. rows.OrderBy(r => r.Status).ThenBy(r => r.Name, StringComparer.Ordinal)];
+        return OverviewRanking.Order(rows);
     }
 
     /// <summary>
