@@ -54,7 +54,9 @@ internal static class HistoryCommand
                 return ExitCodes.Healthy;
             }
 
-            var table = new Table().Border(TableBorder.Rounded).Title($"[bold]{Markup.Escape(pair.Name)}[/]: {Markup.Escape(pair.X)} vs {Markup.Escape(pair.Y)}");
+            // A heading line, not the table's title: a title wraps to the table's width, which cuts a long pair name.
+            console.Ansi.MarkupLine($"[bold]{Markup.Escape(pair.Name)}[/]: {Markup.Escape(pair.X)} vs {Markup.Escape(pair.Y)}");
+            var table = new Table().Border(TableBorder.Rounded);
             table.AddColumns("started (UTC)", "status", "n", "r", "ρ", "slope", "shape", "findings");
             foreach (var run in runs)
             {

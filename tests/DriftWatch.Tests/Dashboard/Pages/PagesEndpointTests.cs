@@ -22,11 +22,14 @@ public sealed class PagesEndpointTests(DashboardFixture fixture)
 
         Assert.Equal(200, status);
         var rows = PageHtml.OverviewRows(html);
+        // Worst first by the most severe open alert, then its state, then the latest findings: the two confirmed
+        // criticals (became_perfect with a critical finding in its latest run, then check_failing whose latest run
+        // failed) rank above the confirmed perfect_relationship warning, although the failing pair's status word differs.
         Assert.Equal(
             [
-                ("confirmed", DashboardScenario.Hostile),
                 ("confirmed", DashboardScenario.Perfect),
                 ("failing", DashboardScenario.Failing),
+                ("confirmed", DashboardScenario.Hostile),
                 ("no_baseline", DashboardScenario.Young),
                 ("healthy", DashboardScenario.Healthy),
             ],
