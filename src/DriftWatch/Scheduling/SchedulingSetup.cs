@@ -8,6 +8,9 @@ internal static class SchedulingSetup
     /// <summary>The alert-evaluation job; a pair's check also fires it once done (see <see cref="PairCheckJob"/>).</summary>
     public static readonly JobKey AlertJobKey = new("evaluate-alerts", "alerts");
 
+    /// <summary>The Quartz group of the pairs' check jobs.</summary>
+    public const string PairGroup = "pairs";
+
     /// <summary>One job and one cron trigger per pair; an alert-evaluation job on its own interval.</summary>
     public static void AddPairSchedules(IQuartzBuilder quartz, DriftWatchConfig config, TimeSpan alertEvery)
     {
@@ -15,7 +18,7 @@ internal static class SchedulingSetup
         ArgumentNullException.ThrowIfNull(config);
         foreach (var pair in config.Pairs)
         {
-            var jobKey = new JobKey(pair.Name, "pairs");
+            var jobKey = new JobKey(pair.Name, PairGroup);
             quartz.AddJob<PairCheckJob>(job => job.WithIdentity(jobKey).UsingJobData(PairCheckJob.PairKey, pair.Name).WithDescription($"check {pair.Name}"));
             quartz.AddTrigger(trigger => trigger
                 .ForJob(jobKey)
