@@ -1,4 +1,5 @@
 using System.CommandLine;
+using System.CommandLine.Parsing;
 using System.Globalization;
 using System.Text.Json.Serialization;
 using DriftWatch.Configuration;
@@ -16,6 +17,9 @@ internal static class AlertsCommand
 {
     public static readonly TimeSpan RecentlyCleared = TimeSpan.FromDays(7);
 
+    /// <summary>At most this many stored alerts are read for <c>alerts list</c>.</summary>
+    public const int MaxListed = 500;
+
     public static Command Create(CliConsole console)
     {
         ArgumentNullException.ThrowIfNull(console);
@@ -31,7 +35,11 @@ internal static class AlertsCommand
     {
         var config = ConfigOption.Create();
         var format = CommonOptions.Format();
-        var command = new Command("list", "Open alerts (watching, confirmed) and those cleared in the last 7 days, newest first, with active snoozes.") { config, format };
+        var command = new Command(
+            "list",
+            "Open alerts (watching, confirmed) and those cleared in the last 7 days, with active snoozes. Order: open before cleared, " +
+            "then severity (critical first), state (confirmed before watching), first seen (newest first), id. Info findings are not " +
+            "alerts and are not listed (the dashboard's pair pages show them).") { config, format };
         command.SetAction(async (parse, ct) =>
         {
             var loaded = ConfigOption.Load(parse.GetValue(config), console);
@@ -43,7 +51,7 @@ internal static class AlertsCommand
             await using var services = await OneShotServices.StartAsync(loaded, verbose: false, ct);
             var store = services.GetRequiredService<IAlertStore>();
             var now = services.GetRequiredService<TimeProvider>().GetUtcNow();
-            var alerts = await store.ListAlertsAsync(now - RecentlyCleared, 200, ct);
+            var alerts = AlertListing.Arrange(await store.ListAlertsAsync(now - RecentlyCleared, MaxListed, ct));
             var snoozes = await store.ListSnoozesAsync(now, ct);
             if (parse.GetValue(format) == OutputFormat.Json)
             {
@@ -94,7 +102,7 @@ internal static class AlertsCommand
     private static Command Ack(CliConsole console)
     {
         var config = ConfigOption.Create();
-        var id = new Argument<long>("ID") { Description = "The alert's id (see 'alerts list')." };
+        var id = new Argument<long>("ID") { Description = "The alert's id (see 'alerts list').", CustomParser = AlertId };
         var command = new Command("ack", "Acknowledge an open alert: no reminders while it stays confirmed; it still clears (with a notice) when a check shows it gone.") { id, config };
         command.SetAction(async (parse, ct) =>
         {
@@ -169,6 +177,19 @@ internal static class AlertsCommand
             return ExitCodes.Healthy;
         });
         return command;
+    }
+
+    /// <summary>A positive whole number; anything else is a usage error that says what an id looks like.</summary>
+    private static long AlertId(ArgumentResult result)
+    {
+        var token = result.Tokens.Count > 0 ? result.Tokens[0].Value : string.Empty;
+        if (long.TryParse(token, NumberStyles.None, CultureInfo.InvariantCulture, out var value) && value > 0)
+        {
+            return value;
+        }
+
+        result.AddError($"an alert id is a positive whole number such as 12 (the first column of 'driftwatch alerts list'), was '{token}'");
+        return 0;
     }
 
     private static string Time(DateTimeOffset? at) => at is null ? "" : at.Value.UtcDateTime.ToString("yyyy-MM-dd HH:mm", CultureInfo.InvariantCulture);

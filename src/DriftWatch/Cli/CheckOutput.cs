@@ -48,14 +48,11 @@ internal static class CheckOutput
         }
     }
 
-    /// <summary>"ok" only for a check that measured something; "ok (no baseline yet)" while there is nothing to compare with.</summary>
-    private static string StatusMarkup(PairCheckResult r) => r.Status switch
-    {
-        RunStatus.Failed => "[red]failed[/]",
-        RunStatus.Unmeasurable => "[red]unmeasurable[/]",
-        RunStatus.Interrupted => "[red]interrupted[/]",
-        _ => r.HasBaseline ? "ok" : "ok [grey](no baseline yet)[/]",
-    };
+    /// <summary>The run's status word as JSON and history print it; "(no baseline yet)" while there is nothing to compare with.</summary>
+    private static string StatusMarkup(PairCheckResult r) =>
+        r.Status != RunStatus.Succeeded || r.HasBaseline
+            ? RunStatusText.Markup(r.Status)
+            : RunStatusText.Markup(r.Status) + " [grey](no baseline yet)[/]";
 
     public static CheckReportJson ToJson(IReadOnlyList<PairCheckResult> results, int exitCode) => new(
         exitCode,

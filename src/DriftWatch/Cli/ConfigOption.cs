@@ -18,15 +18,31 @@ internal static class ConfigOption
     };
 
     /// <summary>Loads and validates the configuration; prints every error (file:line:column: key: message) and returns null on failure.</summary>
-    public static DriftWatchConfig? Load(string? path, CliConsole console)
+    public static DriftWatchConfig? Load(string? path, CliConsole console) => Load(path, console, offline: false);
+
+    /// <param name="offline">Secrets need not be available; each one missing is printed as "not checked offline".</param>
+    public static DriftWatchConfig? Load(string? path, CliConsole console, bool offline)
     {
         ArgumentNullException.ThrowIfNull(console);
         path ??= Environment.GetEnvironmentVariable(EnvironmentVariable);
         path = string.IsNullOrWhiteSpace(path) ? DefaultPath : path;
-        var result = ConfigLoader.Load(path, Environment.GetEnvironmentVariable);
+        if (!File.Exists(path))
+        {
+            // Said in so many words: the loader's file:line:column form has no position to give for a missing file.
+            console.WriteError(Directory.Exists(path) ? $"config file not found: {path} is a folder" : $"config file not found: {path}");
+            console.Error.WriteLine($"Give one with --config FILE or ${EnvironmentVariable}; nothing was checked.");
+            return null;
+        }
+
+        var result = ConfigLoader.Load(path, Environment.GetEnvironmentVariable, offline);
         foreach (var error in result.Errors)
         {
             console.WriteError(error.ToString());
+        }
+
+        foreach (var skipped in result.NotChecked)
+        {
+            console.WriteNote(skipped);
         }
 
         if (!result.Ok)

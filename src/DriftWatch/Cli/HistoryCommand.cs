@@ -55,20 +55,16 @@ internal static class HistoryCommand
                 return ExitCodes.Healthy;
             }
 
-            var table = new Table().Border(TableBorder.Rounded).Title($"[bold]{Markup.Escape(pair.Name)}[/]: {Markup.Escape(pair.X)} vs {Markup.Escape(pair.Y)}");
+            // A heading line, not the table's title: a title wraps to the table's width, which cuts a long pair name.
+            console.Ansi.MarkupLine($"[bold]{Markup.Escape(pair.Name)}[/]: {Markup.Escape(pair.X)} vs {Markup.Escape(pair.Y)}");
+            var table = new Table().Border(TableBorder.Rounded);
             table.AddColumns("started (UTC)", "status", "n", "r", "ρ", "slope", "shape", "findings");
             foreach (var run in runs)
             {
                 var p = run.Profile;
                 table.AddRow(
                     run.StartedAt.UtcDateTime.ToString("yyyy-MM-dd HH:mm:ss", CultureInfo.InvariantCulture),
-                    run.Status switch
-                    {
-                        RunStatus.Failed => "[red]failed[/]",
-                        RunStatus.Unmeasurable => "[red]unmeasurable[/]",
-                        RunStatus.Interrupted => "[red]interrupted[/]",
-                        _ => "ok",
-                    },
+                    RunStatusText.Markup(run.Status),
                     Readable.Count(p?.NUsed),
                     Readable.Number(p?.PearsonR),
                     Readable.Number(p?.SpearmanRho),

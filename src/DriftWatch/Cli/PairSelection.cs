@@ -26,10 +26,7 @@ internal static class PairSelection
             return pair;
         }
 
-        var hint = KeyHints.Closest(name, config.Pairs.Select(p => p.Name));
         var where = config.FilePath ?? "the configuration";
-        throw new CliUsageException(hint is null
-            ? $"no pair named '{name}' in {where}"
-            : $"no pair named '{name}' in {where} (did you mean '{hint}'?)");
+        throw new CliUsageException($"no pair named '{name}' in {where}{KeyHints.DidYouMean(name, config.Pairs.Select(p => p.Name))}");
     }
 }

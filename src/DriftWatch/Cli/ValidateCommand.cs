@@ -15,7 +15,11 @@ internal static class ValidateCommand
     {
         ArgumentNullException.ThrowIfNull(console);
         var config = ConfigOption.Create();
-        var offline = new Option<bool>("--offline") { Description = "Check the file only; do not connect to any source." };
+        var offline = new Option<bool>("--offline")
+        {
+            Description = "Check the file only; do not connect to any source. Secrets need not be set: an unset environment variable in a " +
+                "secret key (connection, password, access_token) or a missing password file is reported as 'not checked offline', not as an error.",
+        };
         var pair = new Option<string?>("--pair", "-p") { Description = "Validate only this pair against its source.", HelpName = "NAME" };
         var command = new Command(
             "validate",
@@ -26,7 +30,7 @@ internal static class ValidateCommand
         };
         command.SetAction(async (parse, ct) =>
         {
-            var loaded = ConfigOption.Load(parse.GetValue(config), console);
+            var loaded = ConfigOption.Load(parse.GetValue(config), console, parse.GetValue(offline));
             if (loaded is null)
             {
                 return ExitCodes.UsageError;

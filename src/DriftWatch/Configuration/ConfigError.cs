@@ -6,5 +6,6 @@ namespace DriftWatch.Configuration;
 /// <param name="Key">The key path, e.g. <c>pairs[2].sample.rows</c>; <c>(file)</c> for the file as a whole.</param>
 internal sealed record ConfigError(string File, int Line, int Column, string Key, string Message)
 {
-    public override string ToString() => $"{File}:{Line}:{Column}: {Key}: {Message}";
+    /// <summary><c>file:line:column: key: message</c>; <c>file: message</c> for a problem of the whole file (no position to give).</summary>
+    public override string ToString() => Line == 0 ? $"{File}: {Message}" : $"{File}:{Line}:{Column}: {Key}: {Message}";
 }

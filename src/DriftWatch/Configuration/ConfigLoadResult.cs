@@ -6,4 +6,7 @@ namespace DriftWatch.Configuration;
 internal sealed record ConfigLoadResult(DriftWatchConfig? Config, IReadOnlyList<ConfigError> Errors)
 {
     public bool Ok => Errors.Count == 0 && Config is not null;
+
+    /// <summary>Offline loading only: "key: why" for each secret that was not available and so not checked.</summary>
+    public IReadOnlyList<string> NotChecked { get; init; } = [];
 }

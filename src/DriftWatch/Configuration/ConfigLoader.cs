@@ -14,7 +14,11 @@ internal static class ConfigLoader
     public const int MaxFileBytes = 1024 * 1024;
 
     /// <param name="env">Looks up ${NAME}; pass <see cref="Environment.GetEnvironmentVariable(string)"/> in production.</param>
-    public static ConfigLoadResult Load(string path, Func<string, string?> env)
+    /// <param name="offline">
+    /// Check the file without its secrets: an unset variable in a secret key or an unreadable password file is listed in
+    /// <see cref="ConfigLoadResult.NotChecked"/>, not reported as an error. The config it returns is for validation only.
+    /// </param>
+    public static ConfigLoadResult Load(string path, Func<string, string?> env, bool offline = false)
     {
         ArgumentNullException.ThrowIfNull(path);
         ArgumentNullException.ThrowIfNull(env);
@@ -42,13 +46,13 @@ internal static class ConfigLoader
             return FileError(path, $"cannot read the configuration: {ex.Message}");
         }
 
-        var result = Parse(text, path, env, Path.GetDirectoryName(fullPath));
+        var result = Parse(text, path, env, Path.GetDirectoryName(fullPath), offline);
         return result.Config is null ? result : result with { Config = result.Config with { FilePath = fullPath } };
     }
 
     /// <param name="fileName">Used in messages and pair locations.</param>
     /// <param name="baseDirectory">Where relative paths start; the current directory when null.</param>
-    public static ConfigLoadResult Parse(string yamlText, string fileName, Func<string, string?> env, string? baseDirectory = null)
+    public static ConfigLoadResult Parse(string yamlText, string fileName, Func<string, string?> env, string? baseDirectory = null, bool offline = false)
     {
         ArgumentNullException.ThrowIfNull(yamlText);
         ArgumentNullException.ThrowIfNull(fileName);
@@ -58,7 +62,7 @@ internal static class ConfigLoader
             return FileError(fileName, $"the text has {yamlText.Length} characters; a configuration may have at most {MaxFileBytes}");
         }
 
-        var context = new ConfigContext(fileName, Path.GetFullPath(baseDirectory ?? Environment.CurrentDirectory), env);
+        var context = new ConfigContext(fileName, Path.GetFullPath(baseDirectory ?? Environment.CurrentDirectory), env, offline);
         var root = LoadRoot(yamlText, context);
         if (root is null)
         {
@@ -67,8 +71,8 @@ internal static class ConfigLoader
 
         var config = Map(root);
         return context.ErrorCount == 0
-            ? new ConfigLoadResult(config, [])
-            : new ConfigLoadResult(null, context.SortedErrors());
+            ? new ConfigLoadResult(config, []) { NotChecked = context.NotChecked }
+            : new ConfigLoadResult(null, context.SortedErrors()) { NotChecked = context.NotChecked };
     }
 
     private static MappingReader? LoadRoot(string yamlText, ConfigContext context)

@@ -10,7 +10,11 @@ namespace DriftWatch.Configuration;
 internal static class EnvExpander
 {
     /// <summary>The expanded text, or null with <paramref name="problem"/> set; the problem may name a variable, never a variable's value.</summary>
-    public static string? Expand(string text, Func<string, string?> env, bool secret, out string? problem)
+    /// <param name="unset">
+    /// When given, a variable that is unset and has no default is not a problem: the function is told its name
+    /// and its result is written instead (offline validation checks the file without the secrets it names).
+    /// </param>
+    public static string? Expand(string text, Func<string, string?> env, bool secret, out string? problem, Func<string, string>? unset = null)
     {
         problem = null;
         if (!text.Contains('$', StringComparison.Ordinal))
@@ -61,6 +65,11 @@ internal static class EnvExpander
             {
                 // Shell semantics of ":-": an empty variable also takes the default.
                 value = fallback;
+            }
+
+            if (value is null && unset is not null)
+            {
+                value = unset(name);
             }
 
             if (value is null)

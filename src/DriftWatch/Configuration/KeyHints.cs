@@ -43,6 +43,29 @@ internal static class KeyHints
         return d[a.Length, b.Length];
     }
 
+    /// <summary>
+    /// The pair a mistyped name most likely meant: the closest name by <see cref="Closest"/>, else the one name that
+    /// ends with the typed text after a separator ("total_vs_items" for "orders.total_vs_items"), case ignored.
+    /// </summary>
+    public static string? ClosestPair(string unknown, IEnumerable<string> names)
+    {
+        ArgumentNullException.ThrowIfNull(unknown);
+        var list = names.Distinct(StringComparer.Ordinal).ToArray();
+        if (Closest(unknown, list) is { } close)
+        {
+            return close;
+        }
+
+        var tails = list.Where(n => n.Length > unknown.Length
+            && n.EndsWith(unknown, StringComparison.OrdinalIgnoreCase)
+            && n[n.Length - unknown.Length - 1] is '.' or '_' or '-' or '/' or ':').ToArray();
+        return unknown.Length > 0 && tails.Length == 1 ? tails[0] : null;
+    }
+
+    /// <summary>" (did you mean 'NAME'?)" when there is a likely pair, else empty: appended to an unknown-pair message.</summary>
+    public static string DidYouMean(string unknown, IEnumerable<string> names) =>
+        ClosestPair(unknown, names) is { } hint ? $" (did you mean '{hint}'?)" : string.Empty;
+
     /// <summary>The closest allowed key, if it is close enough to be a slip rather than another word.</summary>
     public static string? Closest(string unknown, IEnumerable<string> allowed)
     {

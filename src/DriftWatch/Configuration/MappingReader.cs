@@ -108,7 +108,17 @@ internal sealed class MappingReader
             return null;
         }
 
-        var expanded = EnvExpander.Expand(scalar.Value ?? string.Empty, Context.Env, secret, out var problem);
+        Func<string, string>? unset = null;
+        if (secret && Context.Offline)
+        {
+            unset = name =>
+            {
+                Context.SkipOffline(path, $"environment variable {name} is not set; not checked offline");
+                return ConfigContext.OfflinePlaceholder;
+            };
+        }
+
+        var expanded = EnvExpander.Expand(scalar.Value ?? string.Empty, Context.Env, secret, out var problem, unset);
         if (expanded is null)
         {
             Context.Error(node.Start, path, problem!);

@@ -82,6 +82,12 @@ internal static class SmtpSection
         }
 
         var fromFile = SecretFiles.Read(reader.Context.ResolvePath(file), out var problem);
+        if (fromFile is null && reader.Context.Offline)
+        {
+            reader.Context.SkipOffline(reader.KeyPath("password_file"), problem + "; not checked offline");
+            return ConfigContext.OfflinePlaceholder;
+        }
+
         if (fromFile is null)
         {
             reader.Error("password_file", problem!);

@@ -47,6 +47,9 @@ internal static class DashboardEndpoints
             site.AddEndpointFilter(new HostFilter(hosts));
         }
 
+        // HEAD on everything readable (health probes, link checkers); runs after each endpoint's own conventions.
+        ((IEndpointConventionBuilder)site).Finally(HeadForGet.Allow);
+
         site.MapGet(DashboardAssets.CssPath, (HttpContext http) => Asset(http, DashboardAssets.Css, "text/css; charset=utf-8"));
         site.MapGet(DashboardAssets.ScriptPath, (HttpContext http) => Asset(http, DashboardAssets.Script, "text/javascript; charset=utf-8"));
         LoginEndpoints.Map(site, access, reader.Time);
@@ -65,7 +68,7 @@ internal static class DashboardEndpoints
             var pair = await reader.ResolvePairAsync(name, ct);
             if (pair is null)
             {
-                return (StatusCodes.Status404NotFound, MessagePage.Render(Context(http, access, reader), "No such pair", $"No pair named '{name}' is configured or has history in the store."));
+                return (StatusCodes.Status404NotFound, MessagePage.Render(Context(http, access, reader), "No such pair", $"No pair named '{name}' is configured or has history in the store{await reader.DidYouMeanAsync(name, ct)}."));
             }
 
             var detail = await reader.GetPairAsync(pair, PageNumber(http.Request.Query["page"]), DashboardReader.DefaultPageSize, ct);
@@ -75,35 +78,41 @@ internal static class DashboardEndpoints
         guarded.MapGet("/alerts", (HttpContext http, CancellationToken ct) => Page(http, logger, reader.Time, async () =>
             (StatusCodes.Status200OK, AlertsPage.Render(Context(http, access, reader), await reader.GetAlertsAsync(Text(http.Request.Query["pair"]), ct)))));
 
+        guarded.MapGet("/api", (HttpContext http) =>
+        {
+            NoStore(http);
+            return Results.Json(ApiIndex.Build(services.GetRequiredService<EndpointDataSource>()), JsonContract.CompactOptions);
+        }).WithDescription("this index: every endpoint with its methods");
+
         guarded.MapGet("/api/pairs", (HttpContext http, CancellationToken ct) => Json(http, logger, async () =>
         {
             var rows = await reader.GetOverviewAsync(ct);
             return (StatusCodes.Status200OK, (object)new PairsResponse(reader.Time.GetUtcNow(), [.. rows.Select(ApiMapping.ToJson)]));
-        }));
+        })).WithDescription("every pair with its status, latest run and baseline");
 
         guarded.MapGet("/api/pairs/{name}/runs", (HttpContext http, string name, CancellationToken ct) => Json(http, logger, async () =>
         {
             var pair = await reader.ResolvePairAsync(name, ct);
             if (pair is null)
             {
-                return (StatusCodes.Status404NotFound, (object)new ErrorJson($"no pair named '{name}'"));
+                return (StatusCodes.Status404NotFound, (object)new ErrorJson($"no pair named '{name}'{await reader.DidYouMeanAsync(name, ct)}"));
             }
 
             var query = http.Request.Query;
             var size = int.TryParse(query["page_size"], NumberStyles.None, CultureInfo.InvariantCulture, out var s) ? s : DashboardReader.DefaultPageSize;
             var detail = await reader.GetPairAsync(pair, PageNumber(query["page"]), size, ct);
             return (StatusCodes.Status200OK, (object)new RunsResponse(pair, detail.Page, detail.PageSize, detail.PageCount, detail.TotalRuns, [.. detail.Runs.Select(RunJson.Of)]));
-        }));
+        })).WithDescription("a pair's runs, newest first (page, page_size)");
 
         guarded.MapGet("/api/alerts", (HttpContext http, CancellationToken ct) => Json(http, logger, async () =>
-            (StatusCodes.Status200OK, (object)ApiMapping.ToJson(await reader.GetAlertsAsync(Text(http.Request.Query["pair"]), ct), reader.Time.GetUtcNow()))));
+            (StatusCodes.Status200OK, (object)ApiMapping.ToJson(await reader.GetAlertsAsync(Text(http.Request.Query["pair"]), ct), reader.Time.GetUtcNow())))).WithDescription("open alerts, those cleared in the last 7 days and the outbox (pair)");
 
         guarded.MapGet("/healthz", async (HttpContext http, CancellationToken ct) =>
         {
             var report = await health.CheckAsync(ct);
             NoStore(http);
             return Results.Json(report, JsonContract.CompactOptions, statusCode: report.Healthy ? StatusCodes.Status200OK : StatusCodes.Status503ServiceUnavailable);
-        });
+        }).WithDescription("the store and the scheduler: 200 healthy, 503 not");
 
         guarded.MapGet("/metrics", async (HttpContext http, CancellationToken ct) =>
         {
@@ -123,7 +132,7 @@ internal static class DashboardEndpoints
 
                 return Results.Text("the store cannot be read: " + ex.Message + "\n", "text/plain; charset=utf-8", statusCode: StatusCodes.Status503ServiceUnavailable);
             }
-        });
+        }).WithDescription("OpenMetrics text: runs, open alerts, check durations");
 
         LogStart(services, access, logger);
         return app;

@@ -33,6 +33,7 @@ internal static class WorkerHost
         builder.Host.UseSystemd();
         // The host waits for the checks' grace plus the time to record them; StopGrace cancels the checks.
         builder.Services.Configure<HostOptions>(o => o.ShutdownTimeout = StopGrace.HostShutdownTimeout(config.Worker.StopGrace));
+        builder.Services.AddSingleton<Scheduling.RunningChecks>();
         builder.Services.AddSingleton(sp => new StopGrace(config.Worker.StopGrace, sp.GetRequiredService<IHostApplicationLifetime>(), sp.GetRequiredService<ILogger<StopGrace>>()));
 
         var time = options.Time ?? TimeProvider.System;

@@ -23,6 +23,12 @@ internal sealed class CliConsole
     public TextWriter Error { get; }
 
     /// <summary>
+    /// Tables written to a file or a pipe are laid out for this many columns, so no cell wraps: a script reads
+    /// one table row per line with names and dates whole (a terminal's own width would cut them at 80).
+    /// </summary>
+    public const int PipedWidth = 4096;
+
+    /// <summary>
     /// The process console. Spectre detects colour and ANSI support itself: NO_COLOR, a dumb terminal
     /// or output redirected to a file give plain text without escape codes.
     /// </summary>
@@ -34,6 +40,11 @@ internal sealed class CliConsole
             ColorSystem = ColorSystemSupport.Detect,
             Out = new AnsiConsoleOutput(Console.Out),
         });
+        if (Console.IsOutputRedirected)
+        {
+            ansi.Profile.Width = PipedWidth;
+        }
+
         return new CliConsole(ansi, Console.Out, Console.Error);
     }
 

@@ -14,7 +14,8 @@ internal static class FindingsView
         ArgumentNullException.ThrowIfNull(console);
         ArgumentNullException.ThrowIfNull(findings);
 
-        console.Write(new Rule("[bold]Findings[/]").LeftJustified());
+        // A heading line rather than a rule: a rule spans the whole width, which is thousands of columns in a pipe.
+        console.MarkupLine("[bold]Findings[/]");
         if (findings.Count == 0)
         {
             console.MarkupLine("[green]No findings.[/]");

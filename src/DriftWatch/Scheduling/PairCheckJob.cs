@@ -6,11 +6,11 @@ using Quartz;
 namespace DriftWatch.Scheduling;
 
 /// <summary>
-/// The scheduled check of one pair. <see cref="DisallowConcurrentExecutionAttribute"/> is per job key,
+/// The scheduled check of one pair, then an immediate alert evaluation. <see cref="DisallowConcurrentExecutionAttribute"/> is per job key,
 /// and each pair has its own job, so a slow run of a pair delays that pair's next run instead of overlapping it.
 /// </summary>
 [DisallowConcurrentExecution]
-internal sealed class PairCheckJob(LiveConfig config, PairChecker checker, StopGrace stop, ILogger<PairCheckJob> logger) : IJob
+internal sealed class PairCheckJob(LiveConfig config, PairChecker checker, StopGrace stop, RunningChecks running, ILogger<PairCheckJob> logger) : IJob
 {
     public const string PairKey = "pair";
 
@@ -28,6 +28,25 @@ internal sealed class PairCheckJob(LiveConfig config, PairChecker checker, StopG
         // A stop request does not cancel the check at once: it goes on until the grace runs out.
         using var linked = CancellationTokenSource.CreateLinkedTokenSource(cancellationToken, stop.Expired);
         logger.LogDebug("Check of {Pair} started", pair.Name);
-        await checker.CheckAsync(pair, linked.Token);
+        running.Started();
+        bool last;
+        try
+        {
+            await checker.CheckAsync(pair, linked.Token);
+        }
+        finally
+        {
+            last = running.Finished();
+        }
+
+        // Judge the new runs now rather than at the next interval, so alert states (and the /metrics gauge read
+        // from them) follow the checks. Only the last check of a batch still running fires it: the false-discovery
+        // step works over one evaluation's runs, so the pairs that ran together stay one family. If two checks
+        // finish at the same moment, exactly one of them is the last.
+        // The alert job refuses concurrent runs: a request waits for the running one, then sees what it did not.
+        if (last && !linked.IsCancellationRequested)
+        {
+            await context.Scheduler.TriggerJob(SchedulingSetup.AlertJobKey, cancellationToken);
+        }
     }
 }

@@ -5,6 +5,12 @@ namespace DriftWatch.Scheduling;
 
 internal static class SchedulingSetup
 {
+    /// <summary>The alert-evaluation job; a pair's check also fires it once done (see <see cref="PairCheckJob"/>).</summary>
+    public static readonly JobKey AlertJobKey = new("evaluate-alerts", "alerts");
+
+    /// <summary>The Quartz group of the pairs' check jobs.</summary>
+    public const string PairGroup = "pairs";
+
     /// <summary>One job and one cron trigger per pair; an alert-evaluation job on its own interval.</summary>
     public static void AddPairSchedules(IQuartzBuilder quartz, DriftWatchConfig config, TimeSpan alertEvery)
     {
@@ -25,7 +31,7 @@ internal static class SchedulingSetup
             .WithSchedule(SimpleScheduleBuilder.Create().WithInterval(StoreMaintenanceJob.Every).RepeatForever()
                 .WithMisfireInstruction(SimpleTriggerMisfireInstruction.NextWithRemainingCount)));
 
-        var alertKey = new JobKey("evaluate-alerts", "alerts");
+        var alertKey = AlertJobKey;
         quartz.AddJob<AlertCycleJob>(job => job.WithIdentity(alertKey).WithDescription("evaluate alerts and deliver the outbox"));
         quartz.AddTrigger(trigger => trigger
             .ForJob(alertKey)

@@ -29,7 +29,7 @@ internal sealed class DashboardReader(DriftWatchConfig config, IHistoryStore his
 
     public TimeProvider Time => time;
 
-    /// <summary>Every pair, worst status first, then by name.</summary>
+    /// <summary>Every pair, worst first by <see cref="OverviewRanking"/>.</summary>
     public async Task<IReadOnlyList<PairSummary>> GetOverviewAsync(CancellationToken cancellationToken)
     {
         var latest = (await history.GetLatestRunsAsync(cancellationToken)).ToDictionary(r => r.Pair, StringComparer.Ordinal);
@@ -44,7 +44,7 @@ internal sealed class DashboardReader(DriftWatchConfig config, IHistoryStore his
             rows.Add(new PairSummary(name, config.FindPair(name), PairStatusRules.Derive(run, pairAlerts, baseline is not null), run, baseline, pairAlerts));
         }
 
-        return [.. rows.OrderBy(r => r.Status).ThenBy(r => r.Name, StringComparer.Ordinal)];
+        return OverviewRanking.Order(rows);
     }
 
     /// <summary>
@@ -66,6 +66,18 @@ internal sealed class DashboardReader(DriftWatchConfig config, IHistoryStore his
         }
 
         return null;
+    }
+
+    /// <summary>
+    /// " (did you mean 'NAME'?)" for a pair name that resolves to nothing, from the configured pairs and those with
+    /// history; empty when none is close. The same hint as the command line's.
+    /// </summary>
+    public async Task<string> DidYouMeanAsync(string unknown, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(unknown);
+        var latest = await history.GetLatestRunsAsync(cancellationToken);
+        var names = config.Pairs.Select(p => p.Name).Concat(latest.Select(r => r.Pair));
+        return Configuration.KeyHints.DidYouMean(unknown, names);
     }
 
     /// <summary>The pair page's data; <paramref name="page"/> is 1-based and clamped to the pages there are.</summary>
@@ -102,14 +114,17 @@ internal sealed class DashboardReader(DriftWatchConfig config, IHistoryStore his
         return new PairDetail(summary, pageRuns, page, pageSize, total, trend, plotRun, recent, needed);
     }
 
-    /// <summary>Open alerts, recently cleared ones and the outbox; of one pair only when <paramref name="pair"/> is set.</summary>
+    /// <summary>
+    /// Open alerts in <see cref="Output.AlertListing"/>'s order and without info sightings (as <c>alerts list</c>),
+    /// recently cleared ones and the outbox; of one pair only when <paramref name="pair"/> is set.
+    /// </summary>
     public async Task<AlertsOverview> GetAlertsAsync(string? pair, CancellationToken cancellationToken)
     {
         var since = time.GetUtcNow() - RecentAlerts;
         var listed = await alerts.ListAlertsAsync(since, MaxAlerts, cancellationToken, pair);
         var deliveries = await outbox.ListOutboxAsync(unsentOnly: false, MaxDeliveries, cancellationToken);
         return new AlertsOverview(
-            [.. listed.Where(a => a.IsOpen).OrderByDescending(a => a.Severity).ThenByDescending(a => a.LastSeen)],
+            [.. Output.AlertListing.Arrange(listed.Where(a => a.IsOpen))],
             [.. listed.Where(a => !a.IsOpen).OrderByDescending(a => a.ClearedAt)],
             since,
             deliveries);

@@ -40,7 +40,7 @@ internal static class StaticReport
         if (pair is not null)
         {
             var resolved = await reader.ResolvePairAsync(pair, cancellationToken)
-                ?? throw new KeyNotFoundException($"no pair named '{pair}' is configured or has history in the store");
+                ?? throw new KeyNotFoundException($"no pair named '{pair}' is configured or has history in the store{await reader.DidYouMeanAsync(pair, cancellationToken)}");
             rows = [.. rows.Where(r => r.Name == resolved)];
         }
 

@@ -73,7 +73,10 @@ internal static class AlertsTable
         {
             // The header says UTC; the cell stays narrow so the message column keeps its room.
             html.Element("time", Display.Time(t)[..^4], ("datetime", Display.Iso(t)), ("title", Display.Time(t)));
-            html.Element("span", Display.Relative(t, context.Now), ("class", "sub"));
+            if (context.Live)
+            {
+                html.Element("span", Display.Relative(t, context.Now), ("class", "sub"));
+            }
         }
         else
         {

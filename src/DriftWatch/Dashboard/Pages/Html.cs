@@ -57,6 +57,31 @@ internal sealed class Html
         return this;
     }
 
+    /// <summary>
+    /// A name such as "orders.total_vs_items", escaped, with a &lt;wbr&gt; after each '.', '_', '-' and '/': a narrow
+    /// column then wraps it between its parts, never inside a word (browsers do not break at those marks on their own).
+    /// </summary>
+    public Html Name(string? text)
+    {
+        if (string.IsNullOrEmpty(text))
+        {
+            return this;
+        }
+
+        var start = 0;
+        for (var i = 0; i < text.Length - 1; i++)
+        {
+            if (text[i] is '.' or '_' or '-' or '/')
+            {
+                _text.Append(Encode(text[start..(i + 1)])).Append("<wbr>");
+                start = i + 1;
+            }
+        }
+
+        _text.Append(Encode(text[start..]));
+        return this;
+    }
+
     /// <summary>Markup written as is: only our own constants and sanitised SVG.</summary>
     public Html Raw(string markup)
     {

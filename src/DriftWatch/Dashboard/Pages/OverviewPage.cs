@@ -177,16 +177,17 @@ internal static class OverviewPage
             var link = context.Links.Pair(row.Name);
             if (link is null)
             {
-                h.Element("span", row.Name, ("class", "pair-name"));
+                h.Open("span", ("class", "pair-name")).Name(row.Name).Close("span");
             }
             else
             {
-                h.Link(link, row.Name, ("class", "pair-name"));
+                h.Open("a", ("href", link), ("class", "pair-name")).Name(row.Name).Close("a");
             }
 
             if (row.Config is { } config)
             {
-                h.Element("span", $"{config.Y} vs {config.X}", ("class", "sub"));
+                // x before y, as the command line and the configuration name them.
+                h.Element("span", $"{config.X} vs {config.Y}", ("class", "sub"));
             }
             else
             {
@@ -228,8 +229,15 @@ internal static class OverviewPage
 
         Cell(html, Display.SortKey(latest.StartedAt.ToUnixTimeMilliseconds()), h =>
         {
-            h.Element("time", Display.Relative(latest.StartedAt, context.Now), ("datetime", Display.Iso(latest.StartedAt)), ("title", Display.Time(latest.StartedAt)));
-            h.Element("span", Display.Time(latest.StartedAt), ("class", "sub"));
+            if (context.Live)
+            {
+                h.Element("time", Display.Relative(latest.StartedAt, context.Now), ("datetime", Display.Iso(latest.StartedAt)), ("title", Display.Time(latest.StartedAt)));
+                h.Element("span", Display.Time(latest.StartedAt), ("class", "sub"));
+            }
+            else
+            {
+                h.Element("time", Display.Time(latest.StartedAt), ("datetime", Display.Iso(latest.StartedAt)));
+            }
         });
     }
 

@@ -41,16 +41,16 @@ internal static class PairPage
 
         html.Open("div", ("class", "page-head pair-head"));
         html.Open("h1");
-        html.Element("span", summary.Name, ("class", "pair-title"));
+        html.Open("span", ("class", "pair-title")).Name(summary.Name).Close("span");
         html.Text(" ");
         Badges.Status(html, summary.Status);
         html.Close("h1");
         html.Open("p", ("class", "lede"));
         if (summary.Config is { } config)
         {
-            html.Element("strong", config.Y);
-            html.Text(" against ");
             html.Element("strong", config.X);
+            html.Text(" vs ");
+            html.Element("strong", config.Y);
             html.Text(" · source ");
             html.Element("strong", config.Source);
         }
@@ -62,8 +62,15 @@ internal static class PairPage
         if (summary.Latest is { } latest)
         {
             html.Text(" · last checked ");
-            html.Element("time", Display.Relative(latest.StartedAt, context.Now), ("datetime", Display.Iso(latest.StartedAt)), ("title", Display.Time(latest.StartedAt)));
-            html.Text(" (" + Display.Time(latest.StartedAt) + ")");
+            if (context.Live)
+            {
+                html.Element("time", Display.Relative(latest.StartedAt, context.Now), ("datetime", Display.Iso(latest.StartedAt)), ("title", Display.Time(latest.StartedAt)));
+                html.Text(" (" + Display.Time(latest.StartedAt) + ")");
+            }
+            else
+            {
+                html.Element("time", Display.Time(latest.StartedAt), ("datetime", Display.Iso(latest.StartedAt)));
+            }
         }
         else
         {

@@ -8,11 +8,14 @@ internal static partial class PageHtml
 {
     /// <summary>The overview's rows: status key, decoded pair name, the row's markup.</summary>
     public static IReadOnlyList<(string Status, string Pair, string Markup)> OverviewRows(string html) =>
-        [.. Row().Matches(html).Select(m => (m.Groups[1].Value, WebUtility.HtmlDecode(PairName().Match(m.Value).Groups[1].Value), m.Value))];
+        [.. Row().Matches(html).Select(m => (m.Groups[1].Value, WebUtility.HtmlDecode(NoWordBreaks(PairName().Match(m.Value).Groups[1].Value)), m.Value))];
 
     /// <summary>The text of each &lt;td&gt; of a row, decoded, tags stripped.</summary>
     public static IReadOnlyList<string> Cells(string rowMarkup) =>
-        [.. Cell().Matches(rowMarkup).Select(m => WebUtility.HtmlDecode(Tag().Replace(m.Groups[1].Value, " ")).Trim())];
+        [.. Cell().Matches(rowMarkup).Select(m => WebUtility.HtmlDecode(Tag().Replace(NoWordBreaks(m.Groups[1].Value), " ")).Trim())];
+
+    /// <summary>Names carry &lt;wbr&gt; (a place to wrap, no text); the text read is without them.</summary>
+    public static string NoWordBreaks(string markup) => markup.Replace("<wbr>", string.Empty, StringComparison.Ordinal);
 
     public static int Count(string html, string fragment) => Regex.Count(html, Regex.Escape(fragment));
 
@@ -21,7 +24,7 @@ internal static partial class PageHtml
     [GeneratedRegex("<tr data-status=\"([a-z_]+)\"[^>]*>.*?</tr>", RegexOptions.Singleline)]
     private static partial Regex Row();
 
-    [GeneratedRegex("class=\"pair-name\">([^<]*)<")]
+    [GeneratedRegex("class=\"pair-name\">(.*?)</(?:span|a)>")]
     private static partial Regex PairName();
 
     [GeneratedRegex("<td[^>]*>(.*?)</td>", RegexOptions.Singleline)]

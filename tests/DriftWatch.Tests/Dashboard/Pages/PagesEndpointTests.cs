@@ -22,11 +22,14 @@ public sealed class PagesEndpointTests(DashboardFixture fixture)
 
         Assert.Equal(200, status);
         var rows = PageHtml.OverviewRows(html);
+        // Worst first by the most severe open alert, then its state, then the latest findings: the two confirmed
+        // criticals (became_perfect with a critical finding in its latest run, then check_failing whose latest run
+        // failed) rank above the confirmed perfect_relationship warning, although the failing pair's status word differs.
         Assert.Equal(
             [
-                ("confirmed", DashboardScenario.Hostile),
                 ("confirmed", DashboardScenario.Perfect),
                 ("failing", DashboardScenario.Failing),
+                ("confirmed", DashboardScenario.Hostile),
                 ("no_baseline", DashboardScenario.Young),
                 ("healthy", DashboardScenario.Healthy),
             ],
@@ -103,7 +106,8 @@ public sealed class PagesEndpointTests(DashboardFixture fixture)
         var (status, html) = await Host.GetAsync(href);
 
         Assert.Equal(200, status);
-        Assert.Contains("<span class=\"pair-title\">&lt;script&gt;alert(1)&lt;/script&gt;</span>", html, StringComparison.Ordinal);
+        // Escaped, with a place to wrap after the '/' (Html.Name): still text, never markup.
+        Assert.Contains("<span class=\"pair-title\">&lt;script&gt;alert(1)&lt;/<wbr>script&gt;</span>", html, StringComparison.Ordinal);
         // Inside the inline SVG the column name is XML-escaped text of an axis label, not markup.
         Assert.Contains("&lt;img src=x onerror=alert(2)&gt;</text>", html, StringComparison.Ordinal);
     }
