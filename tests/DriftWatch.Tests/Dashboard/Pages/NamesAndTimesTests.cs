@@ -35,7 +35,7 @@ public sealed partial class NamesAndTimesTests(DashboardFixture fixture) : IDisp
     public async Task StaticReport_GivesAbsoluteTimesOnly_NeverHowLongAgo()
     {
         var scenario = fixture.Scenario;
-        await StaticReport.WriteAsync(scenario.Config, scenario.History, scenario.Alerts, _out, null, DashboardScenario.Clock, CancellationToken.None);
+        await StaticReport.WriteAsync(scenario.Config, scenario.History, scenario.Alerts, scenario.Outbox, _out, null, DashboardScenario.Clock, CancellationToken.None);
 
         foreach (var file in Directory.EnumerateFiles(_out, "*.html", SearchOption.AllDirectories))
         {
