@@ -4,6 +4,7 @@ using DriftWatch.Core.Profiling;
 using DriftWatch.Monitoring;
 using DriftWatch.Sources;
 using DriftWatch.Store;
+using DriftWatch.Triage;
 using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Logging;
 
@@ -28,10 +29,7 @@ internal static class DriftWatchServices
         services.AddSingleton<IHistoryStore>(sp => StoreFactory.CreateHistoryStore(sp.GetRequiredService<IStoreDatabase>(), config.Store));
         services.AddSingleton<SourceFactory>();
         services.AddSingleton<ISourceFactory>(sp => sp.GetRequiredService<SourceFactory>());
-        services.AddSingleton(sp => new BaselineService(
-            sp.GetRequiredService<IHistoryStore>(),
-            Profiler.Profile,
-            sp.GetRequiredService<ILogger<BaselineService>>()));
+        services.AddDriftWatchTriage();
         services.AddSingleton<PairChecker>();
         services.AddSingleton<MonitorCycle>();
         services.AddSingleton<CheckPass>();
