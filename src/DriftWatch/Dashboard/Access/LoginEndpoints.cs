@@ -72,14 +72,16 @@ internal static class LoginEndpoints
 
     private static IResult SignIn(HttpContext http, DashboardAccess access, string? name, string next)
     {
-        var (session, expires) = access.Sessions.Start(name);
+        var (session, _) = access.Sessions.Start(name);
         http.Response.Cookies.Append(DashboardAccess.CookieName, session, new CookieOptions
         {
             HttpOnly = true,
             SameSite = SameSiteMode.Strict,
             Secure = http.Request.IsHttps,
             Path = "/",
-            Expires = expires,
+            // Max-Age, not Expires: the browser counts it on its own clock, so a skewed server clock cannot make the
+            // cookie arrive already expired. The server ends the session at its own time either way.
+            MaxAge = DashboardSessions.Lifetime,
         });
         return Results.Redirect(next);
     }
