@@ -16,6 +16,7 @@ namespace DriftWatch.Core.Baselines;
 /// </list>
 /// A changed policy (its text differs from the stored one) always rebuilds. An accepted baseline is fixed
 /// under first_runs and window; under rolling it anchors the period's start until the period passes it.
+/// After a reset, no policy pools a run started before the reset: the runs stored then describe what was reset.
 /// </summary>
 public static class BaselinePolicySelector
 {
@@ -25,7 +26,19 @@ public static class BaselinePolicySelector
     /// <summary>A rolling baseline pooled from fewer runs than this is rebuilt at every check, so it grows quickly while young.</summary>
     public const int RollingMinRuns = 5;
 
-    public static BaselinePlan Plan(BaselinePolicy policy, StoredBaseline? existing, DateTimeOffset now)
+    /// <param name="resetAt">When the pair's baseline was last reset, if ever: a plan to build pools only runs from then on.</param>
+    public static BaselinePlan Plan(BaselinePolicy policy, StoredBaseline? existing, DateTimeOffset now, DateTimeOffset? resetAt = null)
+    {
+        var plan = PlanIgnoringReset(policy, existing, now);
+        if (resetAt is not { } reset || plan.Kind != BaselinePlanKind.Build || plan.From >= reset)
+        {
+            return plan;
+        }
+
+        return plan with { From = reset, Reason = plan.Reason + ", runs since the reset only" };
+    }
+
+    private static BaselinePlan PlanIgnoringReset(BaselinePolicy policy, StoredBaseline? existing, DateTimeOffset now)
     {
         ArgumentNullException.ThrowIfNull(policy);
         var policyChanged = existing is not null && existing.PolicyText != policy.ToString();
@@ -167,5 +180,23 @@ public static class BaselinePolicySelector
             .ThenByDescending(r => r.Id)
             .FirstOrDefault();
         return latest is null ? null : BaselineBuilder.Build(pair, policy, [latest], now, profiler, accepted: true, thresholds: thresholds);
+    }
+
+    /// <summary>
+    /// The "accept" operation for one chosen run: it becomes the baseline. Null when the run cannot be pooled
+    /// (not succeeded, or its points are gone).
+    /// </summary>
+    public static StoredBaseline? AcceptRun(
+        string pair,
+        BaselinePolicy policy,
+        RunRecord run,
+        DateTimeOffset now,
+        Func<PairedSample, RelationshipProfile> profiler,
+        Thresholds? thresholds = null)
+    {
+        ArgumentNullException.ThrowIfNull(run);
+        return run.Status == RunStatus.Succeeded && run.Points is { UsedCount: > 0 }
+            ? BaselineBuilder.Build(pair, policy, [run], now, profiler, accepted: true, thresholds: thresholds)
+            : null;
     }
 }

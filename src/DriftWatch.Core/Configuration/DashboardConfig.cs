@@ -13,4 +13,10 @@ public sealed record DashboardConfig
 
     /// <summary>Required when <see cref="Bind"/> is not a loopback address. A secret.</summary>
     public string? AccessToken { get; init; }
+
+    /// <summary>
+    /// A request header a trusted reverse proxy sets to the signed-in user's name (for the audit log of triage
+    /// actions). Honoured only when configured; null reads no header.
+    /// </summary>
+    public string? UserHeader { get; init; }
 }

@@ -7,12 +7,17 @@ using DriftWatch.Core.Alerting;
 using DriftWatch.Hosting;
 using DriftWatch.Output;
 using DriftWatch.Store;
+using DriftWatch.Triage;
 using Microsoft.Extensions.DependencyInjection;
 using Spectre.Console;
 
 namespace DriftWatch.Cli;
 
-/// <summary><c>driftwatch alerts list|ack|snooze|unsnooze</c>: the alert states the worker keeps in the store.</summary>
+/// <summary>
+/// <c>driftwatch alerts list|ack|snooze|unsnooze|log</c>: the alert states the worker keeps in the store. The
+/// changes go through <see cref="TriageActions"/> (as the dashboard's forms do) and are recorded in the audit log
+/// under the operating-system user's name.
+/// </summary>
 internal static class AlertsCommand
 {
     public static readonly TimeSpan RecentlyCleared = TimeSpan.FromDays(7);
@@ -23,11 +28,12 @@ internal static class AlertsCommand
     public static Command Create(CliConsole console)
     {
         ArgumentNullException.ThrowIfNull(console);
-        var command = new Command("alerts", "List, acknowledge or snooze alerts.");
+        var command = new Command("alerts", "List, acknowledge or snooze alerts, and read the log of who did so.");
         command.Subcommands.Add(List(console));
         command.Subcommands.Add(Ack(console));
         command.Subcommands.Add(Snooze(console));
         command.Subcommands.Add(Unsnooze(console));
+        command.Subcommands.Add(AlertsLogCommand.Create(console));
         return command;
     }
 
@@ -102,8 +108,9 @@ internal static class AlertsCommand
     private static Command Ack(CliConsole console)
     {
         var config = ConfigOption.Create();
-        var id = new Argument<long>("ID") { Description = "The alert's id (see 'alerts list').", CustomParser = AlertId };
-        var command = new Command("ack", "Acknowledge an open alert: no reminders while it stays confirmed; it still clears (with a notice) when a check shows it gone.") { id, config };
+        var id = new Argument<long>("ID") { Description = "The alert's id (see 'alerts list'; mails carry it too).", CustomParser = AlertId };
+        var reason = ReasonOption();
+        var command = new Command("ack", "Acknowledge an open alert: no reminders while it stays confirmed; it still clears (with a notice) when a check shows it gone. Recorded in 'alerts log' under your operating-system user name.") { id, config, reason };
         command.SetAction(async (parse, ct) =>
         {
             var loaded = ConfigOption.Load(parse.GetValue(config), console);
@@ -114,8 +121,7 @@ internal static class AlertsCommand
 
             await using var services = await OneShotServices.StartAsync(loaded, verbose: false, ct);
             var alertId = parse.GetValue(id);
-            var now = services.GetRequiredService<TimeProvider>().GetUtcNow();
-            if (!await services.GetRequiredService<IAlertStore>().AckAsync(alertId, now, ct))
+            if (await services.GetRequiredService<TriageActions>().AckAsync(alertId, Actor.FromOperatingSystem(), parse.GetValue(reason), ct) is null)
             {
                 console.WriteError($"no open alert with id {alertId} (see 'driftwatch alerts list')");
                 return ExitCodes.UsageError;
@@ -132,8 +138,8 @@ internal static class AlertsCommand
         var config = ConfigOption.Create();
         var pair = new Argument<string>("PAIR") { Description = "The pair's name in the configuration." };
         var duration = new Option<string>("--for") { Description = "How long, e.g. 30m, 8h, 2d.", Required = true, HelpName = "DURATION" };
-        var reason = new Option<string?>("--reason") { Description = "Why (shown in 'alerts list' and on the dashboard).", HelpName = "TEXT" };
-        var command = new Command("snooze", "Hold back a pair's notifications for a while (a planned migration, a known incident); its states are still tracked.") { pair, config, duration, reason };
+        var reason = new Option<string?>("--reason") { Description = "Why (shown in 'alerts list', on the dashboard and in 'alerts log').", HelpName = "TEXT" };
+        var command = new Command("snooze", "Hold back a pair's notifications for a while (a planned migration, a known incident); its states are still tracked. At most 31 days. Recorded in 'alerts log'.") { pair, config, duration, reason };
         command.SetAction(async (parse, ct) =>
         {
             var loaded = ConfigOption.Load(parse.GetValue(config), console);
@@ -143,15 +149,14 @@ internal static class AlertsCommand
             }
 
             var target = PairSelection.Find(loaded, parse.GetValue(pair)!);
-            if (!DurationSyntax.TryParse(parse.GetValue(duration) ?? "", out var span, out var problem) || span <= TimeSpan.Zero)
+            if (!DurationSyntax.TryParse(parse.GetValue(duration) ?? "", out var span, out var problem) || span < TimeSpan.FromMinutes(1) || span > TriageActions.MaxSnooze)
             {
-                throw new CliUsageException($"--for {problem ?? "must be longer than zero"}");
+                throw new CliUsageException($"--for {problem ?? "must be between 1 minute and 31 days"}");
             }
 
             await using var services = await OneShotServices.StartAsync(loaded, verbose: false, ct);
-            var now = services.GetRequiredService<TimeProvider>().GetUtcNow();
-            await services.GetRequiredService<IAlertStore>().SnoozeAsync(target.Name, now + span, now, parse.GetValue(reason), ct);
-            console.Ansi.MarkupLine($"[green]✓[/] [bold]{Markup.Escape(target.Name)}[/] snoozed until {Time(now + span)} UTC");
+            var until = await services.GetRequiredService<TriageActions>().SnoozeAsync(target.Name, span, Actor.FromOperatingSystem(), parse.GetValue(reason), ct);
+            console.Ansi.MarkupLine($"[green]✓[/] [bold]{Markup.Escape(target.Name)}[/] snoozed until {Time(until)} UTC");
             return ExitCodes.Healthy;
         });
         return command;
@@ -161,7 +166,8 @@ internal static class AlertsCommand
     {
         var config = ConfigOption.Create();
         var pair = new Argument<string>("PAIR") { Description = "The pair's name in the configuration." };
-        var command = new Command("unsnooze", "End a pair's snooze now.") { pair, config };
+        var reason = ReasonOption();
+        var command = new Command("unsnooze", "End a pair's snooze now. Recorded in 'alerts log'.") { pair, config, reason };
         command.SetAction(async (parse, ct) =>
         {
             var loaded = ConfigOption.Load(parse.GetValue(config), console);
@@ -172,7 +178,7 @@ internal static class AlertsCommand
 
             var target = PairSelection.Find(loaded, parse.GetValue(pair)!);
             await using var services = await OneShotServices.StartAsync(loaded, verbose: false, ct);
-            var removed = await services.GetRequiredService<IAlertStore>().UnsnoozeAsync(target.Name, ct);
+            var removed = await services.GetRequiredService<TriageActions>().UnsnoozeAsync(target.Name, Actor.FromOperatingSystem(), parse.GetValue(reason), ct);
             console.Ansi.MarkupLine(removed ? $"[green]✓[/] snooze of [bold]{Markup.Escape(target.Name)}[/] ended" : $"'{Markup.Escape(target.Name)}' was not snoozed");
             return ExitCodes.Healthy;
         });
@@ -191,6 +197,9 @@ internal static class AlertsCommand
         result.AddError($"an alert id is a positive whole number such as 12 (the first column of 'driftwatch alerts list'), was '{token}'");
         return 0;
     }
+
+    internal static Option<string?> ReasonOption() =>
+        new("--reason") { Description = "Why, in a few words; kept in 'alerts log' with your name and the time.", HelpName = "TEXT" };
 
     private static string Time(DateTimeOffset? at) => at is null ? "" : at.Value.UtcDateTime.ToString("yyyy-MM-dd HH:mm", CultureInfo.InvariantCulture);
 }

@@ -61,7 +61,7 @@ internal static class ConfigKeys
         ("check_failing_after", null),
         ("public_url", null));
 
-    public static readonly KeyLevel Dashboard = new("dashboard", ["enabled", "bind", "port", "access_token"]);
+    public static readonly KeyLevel Dashboard = new("dashboard", ["enabled", "bind", "port", "access_token", "user_header"]);
 
     public static readonly KeyLevel Logging = new("logging", ["format", "file", "level"]);
 

@@ -21,7 +21,14 @@ internal static class DashboardSection
         var bind = reader.Text("bind") ?? defaults.Bind;
         var port = reader.Int("port", 1, 65_535) ?? defaults.Port;
         var token = reader.Text("access_token", secret: true);
+        var userHeader = reader.Text("user_header");
         reader.Done();
+        if (userHeader is not null && !IsHeaderName(userHeader))
+        {
+            reader.Error("user_header", $"must be an HTTP header name (letters, digits and - only, e.g. X-Forwarded-User), was '{userHeader}'");
+            userHeader = null;
+        }
+
         // Read once into an address (brackets, localhost and IPv4-mapped forms normalised); the config keeps
         // its canonical text, so the dashboard binds exactly what was validated here.
         var valid = DashboardBinding.TryParse(bind, out var address);
@@ -41,6 +48,10 @@ internal static class DashboardSection
             reader.Error("bind", $"'{bind}' is reachable from other machines; set dashboard.access_token (e.g. ${{DRIFTWATCH_DASHBOARD_TOKEN}}) or bind to 127.0.0.1");
         }
 
-        return new DashboardConfig { Enabled = enabled, Bind = valid ? address.ToString() : bind, Port = port, AccessToken = token };
+        return new DashboardConfig { Enabled = enabled, Bind = valid ? address.ToString() : bind, Port = port, AccessToken = token, UserHeader = userHeader };
     }
+
+    // Stricter than RFC 9110's token on purpose: proxies' user headers are letters, digits and dashes.
+    private static bool IsHeaderName(string name) =>
+        name.Length is > 0 and <= 100 && name.All(c => char.IsAsciiLetterOrDigit(c) || c == '-');
 }

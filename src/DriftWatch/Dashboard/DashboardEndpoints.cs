@@ -1,6 +1,7 @@
 using System.Data.Common;
 using System.Globalization;
 using DriftWatch.Dashboard.Access;
+using DriftWatch.Dashboard.Actions;
 using DriftWatch.Dashboard.Api;
 using DriftWatch.Dashboard.Data;
 using DriftWatch.Dashboard.Health;
@@ -20,7 +21,8 @@ namespace DriftWatch.Dashboard;
 
 /// <summary>
 /// The dashboard's endpoints: pages (/, /pairs/{name}, /alerts), JSON (/api/…), /healthz, /metrics, the sign-in
-/// form and the embedded assets. Call after <see cref="DashboardServices.Add"/>. Everything is read-only.
+/// form, the pair page's triage actions (<see cref="ActionEndpoints"/>, POST, signed in, CSRF-checked) and the
+/// embedded assets. Call after <see cref="DashboardServices.Add"/>. Everything else is read-only.
 /// </summary>
 internal static class DashboardEndpoints
 {
@@ -72,8 +74,11 @@ internal static class DashboardEndpoints
             }
 
             var detail = await reader.GetPairAsync(pair, PageNumber(http.Request.Query["page"]), DashboardReader.DefaultPageSize, ct);
-            return (StatusCodes.Status200OK, PairPage.Render(Context(http, access, reader), detail));
+            var triage = await ActionEndpoints.PanelAsync(http, access, services, pair, ct);
+            return (StatusCodes.Status200OK, PairPage.Render(Context(http, access, reader), detail, triage));
         }));
+
+        ActionEndpoints.Map(guarded, access);
 
         guarded.MapGet("/alerts", (HttpContext http, CancellationToken ct) => Page(http, logger, reader.Time, async () =>
             (StatusCodes.Status200OK, AlertsPage.Render(Context(http, access, reader), await reader.GetAlertsAsync(Text(http.Request.Query["pair"]), ct)))));
@@ -140,7 +145,7 @@ internal static class DashboardEndpoints
 
     private static PageContext Context(HttpContext http, DashboardAccess access, DashboardReader reader) =>
         new(ServedLinks.Instance, InlineAssets: false, reader.Time.GetUtcNow(),
-            ShowSignOut: access.TokenRequired && http.Request.Cookies.ContainsKey(DashboardAccess.CookieName));
+            ShowSignOut: access.SessionOf(http.Request) is not null);
 
     private static async Task<IResult> Page(HttpContext http, ILogger logger, TimeProvider time, Func<Task<(int Status, string Html)>> render)
     {

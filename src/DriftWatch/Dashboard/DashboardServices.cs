@@ -4,6 +4,7 @@ using DriftWatch.Dashboard.Data;
 using DriftWatch.Dashboard.Health;
 using DriftWatch.Dashboard.Metrics;
 using DriftWatch.Store;
+using DriftWatch.Triage;
 using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.DependencyInjection.Extensions;
 
@@ -11,7 +12,8 @@ namespace DriftWatch.Dashboard;
 
 /// <summary>
 /// Registers what <see cref="DashboardEndpoints.Map"/> needs. The host registers the rest: DriftWatchConfig,
-/// IStoreDatabase, IHistoryStore, IAlertStore and IOutboxStore (singletons), and optionally <see cref="IWorkerHealth"/>.
+/// IStoreDatabase, IHistoryStore, IAlertStore and IOutboxStore (singletons), and optionally <see cref="IWorkerHealth"/>; the
+/// triage actions' services are added here unless the host added them (<see cref="TriageServiceCollectionExtensions"/>).
 /// Throws when the configuration binds beyond loopback without an access token.
 /// </summary>
 internal static class DashboardServices
@@ -36,6 +38,8 @@ internal static class DashboardServices
             sp.GetRequiredService<DriftWatchConfig>(),
             sp.GetRequiredService<TimeProvider>(),
             sp.GetService<IWorkerStatus>()));
+        // The pair page's actions: the same TriageActions the CLI uses (registered once whichever host calls first).
+        services.AddDriftWatchTriage();
         services.AddSingleton(sp => new HealthCheck(
             sp.GetRequiredService<IHistoryStore>(),
             sp.GetRequiredService<TimeProvider>(),

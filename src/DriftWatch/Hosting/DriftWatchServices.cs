@@ -7,6 +7,7 @@ using DriftWatch.Monitoring;
 using DriftWatch.Sources;
 using DriftWatch.Spool;
 using DriftWatch.Store;
+using DriftWatch.Triage;
 using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Logging;
 
@@ -31,16 +32,14 @@ internal static class DriftWatchServices
         services.AddSingleton<IHistoryStore>(sp => StoreFactory.CreateHistoryStore(sp.GetRequiredService<IStoreDatabase>(), config.Store));
         services.AddSingleton<SourceFactory>();
         services.AddSingleton<ISourceFactory>(sp => sp.GetRequiredService<SourceFactory>());
-        services.AddSingleton(sp => new BaselineService(
-            sp.GetRequiredService<IHistoryStore>(),
-            Profiler.Profile,
-            sp.GetRequiredService<ILogger<BaselineService>>()));
+        // BaselineService (with the reset store) comes with the triage services below.
         // The worker adds a spool (WorkerHost); one-shot commands record straight to the store.
         services.AddSingleton(sp => new RunRecorder(
             sp.GetRequiredService<IHistoryStore>(),
             sp.GetRequiredService<ILogger<RunRecorder>>(),
             sp.GetService<RunSpool>(),
             sp.GetService<CheckMarkers>()));
+        services.AddDriftWatchTriage();
         services.AddSingleton<PairChecker>();
         services.AddSingleton<MonitorCycle>();
         services.AddSingleton<CheckPass>();

@@ -12,12 +12,14 @@ namespace DriftWatch.Monitoring;
 /// <summary>
 /// Keeps each pair's baseline as its policy says: loads the stored one, rebuilds it from stored runs when the
 /// policy calls for it, and serves the <c>baseline accept</c> and <c>baseline reset</c> commands.
-/// The profiler is passed in (the statistics engine's <c>Profiler.Profile</c>).
+/// The profiler is passed in (the statistics engine's <c>Profiler.Profile</c>). Without a
+/// <paramref name="resets"/> store a reset only forgets the baseline (the next build may pool old runs).
 /// </summary>
 internal sealed class BaselineService(
     IHistoryStore store,
     Func<PairedSample, Thresholds, RelationshipProfile> profiler,
-    ILogger<BaselineService>? logger = null)
+    ILogger<BaselineService>? logger = null,
+    IBaselineResetStore? resets = null)
 {
     /// <summary>How many recent runs <see cref="AcceptLatestAsync"/> looks through for one with points.</summary>
     public const int AcceptLookback = 20;
@@ -29,7 +31,9 @@ internal sealed class BaselineService(
     {
         ArgumentNullException.ThrowIfNull(pair);
         var existing = await store.GetBaselineAsync(pair.Name, cancellationToken);
-        var plan = BaselinePolicySelector.Plan(pair.Baseline, existing, now);
+        // Read at every check, not only without a baseline: a rolling or window rebuild after a reset must not reach back past it either.
+        var resetAt = resets is null ? null : await resets.GetResetAsync(pair.Name, cancellationToken);
+        var plan = BaselinePolicySelector.Plan(pair.Baseline, existing, now, resetAt);
         if (plan.Kind == BaselinePlanKind.KeepExisting)
         {
             return existing;
@@ -48,6 +52,17 @@ internal sealed class BaselineService(
         return baseline;
     }
 
+    /// <summary>The latest successful run that still has its points: what <c>baseline accept</c> adopts without <c>--run</c>.</summary>
+    public async Task<RunRecord?> LatestAcceptableRunAsync(string pair, CancellationToken cancellationToken)
+    {
+        var recent = await store.GetRunsAsync(pair, AcceptLookback, includePoints: true, cancellationToken);
+        return recent
+            .Where(r => r.Status == RunStatus.Succeeded && r.Points is { UsedCount: > 0 })
+            .OrderByDescending(r => r.StartedAt)
+            .ThenByDescending(r => r.Id)
+            .FirstOrDefault();
+    }
+
     /// <summary>Adopts the latest successful run (with points) as the pair's baseline; null when there is none.</summary>
     public async Task<StoredBaseline?> AcceptLatestAsync(PairConfig pair, DateTimeOffset now, CancellationToken cancellationToken)
     {
@@ -59,25 +74,61 @@ internal sealed class BaselineService(
             return null;
         }
 
-        await store.SaveBaselineAsync(baseline, cancellationToken);
-        _logger.LogInformation("Baseline of {Pair} accepted from the run started {StartedAt:o}", pair.Name, baseline.CoversFrom);
+        await SaveAcceptedAsync(baseline, cancellationToken);
         return baseline;
     }
 
-    /// <summary>
-    /// Forgets the pair's baseline; the next check rebuilds it by the policy from the runs still in the store
-    /// (first_runs: the first N retained runs). True when there was one.
-    /// </summary>
-    public async Task<bool> ResetAsync(string pair, CancellationToken cancellationToken)
+    /// <summary>Adopts one chosen run (with points) as the pair's baseline; null when it cannot be pooled.</summary>
+    public async Task<StoredBaseline?> AcceptRunAsync(PairConfig pair, RunRecord run, DateTimeOffset now, CancellationToken cancellationToken)
     {
-        var deleted = await store.DeleteBaselineAsync(pair, cancellationToken);
-        if (deleted)
+        ArgumentNullException.ThrowIfNull(pair);
+        ArgumentNullException.ThrowIfNull(run);
+        if (run.Pair != pair.Name)
         {
-            _logger.LogInformation("Baseline of {Pair} reset", pair);
+            throw new ArgumentException($"run {run.Id} belongs to '{run.Pair}', not '{pair.Name}'", nameof(run));
         }
 
+        var baseline = BaselinePolicySelector.AcceptRun(pair.Name, pair.Baseline, run, now, s => profiler(s, pair.Thresholds), pair.Thresholds);
+        if (baseline is not null)
+        {
+            await SaveAcceptedAsync(baseline, cancellationToken);
+        }
+
+        return baseline;
+    }
+
+    private async Task SaveAcceptedAsync(StoredBaseline baseline, CancellationToken cancellationToken)
+    {
+        await store.SaveBaselineAsync(baseline, cancellationToken);
+        if (resets is not null)
+        {
+            // The accepted run is the anchor now; an earlier reset must not keep it out of a rolling rebuild.
+            await resets.ClearResetAsync(baseline.Pair, cancellationToken);
+        }
+
+        _logger.LogInformation("Baseline of {Pair} accepted from the run started {StartedAt:o}", baseline.Pair, baseline.CoversFrom);
+    }
+
+    /// <summary>
+    /// Forgets the pair's baseline. With a reset store, the next baseline is pooled by the policy only from runs
+    /// started at or after <paramref name="now"/> (first_runs: the next N runs), never from the runs stored
+    /// before, which describe what was reset. True when there was a baseline.
+    /// </summary>
+    public async Task<bool> ResetAsync(string pair, DateTimeOffset now, CancellationToken cancellationToken)
+    {
+        if (resets is not null)
+        {
+            await resets.SetResetAsync(pair, now, cancellationToken);
+        }
+
+        var deleted = await store.DeleteBaselineAsync(pair, cancellationToken);
+        _logger.LogInformation("Baseline of {Pair} reset at {ResetAt:o} (had one: {Deleted})", pair, now, deleted);
         return deleted;
     }
+
+    /// <summary>When the pair's baseline was last reset and not since accepted; null without a reset store.</summary>
+    public Task<DateTimeOffset?> GetResetAsync(string pair, CancellationToken cancellationToken) =>
+        resets is null ? Task.FromResult<DateTimeOffset?>(null) : resets.GetResetAsync(pair, cancellationToken);
 
     /// <summary>
     /// The runs a plan names. With a limit (first_runs) it pages on until enough runs with points are found,

@@ -14,4 +14,8 @@ internal sealed record ProfileReport(
     string? Unmeasurable = null);
 
 /// <param name="CurrentSource">Where the current extract came from ("orders.csv", "bundled sample").</param>
-internal sealed record ProfileLabels(string XName, string YName, string CurrentSource, string? BaselineSource);
+internal sealed record ProfileLabels(string XName, string YName, string CurrentSource, string? BaselineSource)
+{
+    /// <summary>What the main profile is called in the table ("current"; "baseline" when <c>baseline show</c> prints a pooled baseline).</summary>
+    public string CurrentWord { get; init; } = "current";
+}

@@ -70,7 +70,7 @@ internal static class ProfileView
 
         var labels = report.Labels;
         console.MarkupLine($"[bold]{Markup.Escape(labels.YName)}[/] against [bold]{Markup.Escape(labels.XName)}[/]");
-        console.MarkupLine($"  current:  {Markup.Escape(labels.CurrentSource)}");
+        console.MarkupLine($"  {Markup.Escape(labels.CurrentWord)}:  {Markup.Escape(labels.CurrentSource)}");
         if (labels.BaselineSource is not null)
         {
             console.MarkupLine($"  baseline: {Markup.Escape(labels.BaselineSource)}");
@@ -79,10 +79,11 @@ internal static class ProfileView
         console.WriteLine();
         console.Write(BuildTable(report));
         // The shape's reason is a sentence: below the table it reads as one, inside a cell it would not.
-        WriteShapeReason(console, "current", report.Current);
+        // A pooled baseline (baseline show) is not an extract: say what it is.
+        WriteShapeReason(console, labels.CurrentWord == "current" ? "current extract" : "pooled " + labels.CurrentWord, report.Current);
         if (report.Baseline is not null)
         {
-            WriteShapeReason(console, "baseline", report.Baseline);
+            WriteShapeReason(console, "baseline extract", report.Baseline);
         }
 
         console.WriteLine();
@@ -99,7 +100,7 @@ internal static class ProfileView
     {
         if (profile.ShapeReason is { Length: > 0 } reason)
         {
-            console.MarkupLine($"[bold]Shape of the {which} extract: {JsonContract.Name(profile.Shape)}.[/] {Markup.Escape(reason)}");
+            console.MarkupLine($"[bold]Shape of the {Markup.Escape(which)}: {JsonContract.Name(profile.Shape)}.[/] {Markup.Escape(reason)}");
         }
     }
 
@@ -107,7 +108,7 @@ internal static class ProfileView
     {
         var profiles = report.Baseline is null ? [report.Current] : new[] { report.Current, report.Baseline };
         var table = new Table().Border(TableBorder.Rounded).AddColumn(new TableColumn(string.Empty).NoWrap());
-        table.AddColumn(new TableColumn("[bold]current[/]").RightAligned());
+        table.AddColumn(new TableColumn($"[bold]{Markup.Escape(report.Labels.CurrentWord)}[/]").RightAligned());
         if (report.Baseline is not null)
         {
             table.AddColumn(new TableColumn("[bold]baseline[/]").RightAligned());

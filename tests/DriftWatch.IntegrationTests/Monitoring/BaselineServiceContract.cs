@@ -26,7 +26,7 @@ public abstract class BaselineServiceContract : IAsyncLifetime
         var database = await _factory.CreateAsync();
         await new MigrationRunner(database).MigrateAsync(CancellationToken.None);
         _store = new HistoryStore(database, pointsPerRun: 100);
-        _service = new BaselineService(_store, Profiler.Profile);
+        _service = new BaselineService(_store, Profiler.Profile, resets: new BaselineResetStore(database));
     }
 
     public async Task DisposeAsync() => await _factory.DisposeAsync();
@@ -82,7 +82,7 @@ public abstract class BaselineServiceContract : IAsyncLifetime
     }
 
     [Fact]
-    public async Task Accept_AdoptsTheLatestRun_AndReset_RebuildsByThePolicy()
+    public async Task Accept_AdoptsTheLatestRun_AndReset_RebuildsByThePolicy_FromTheNextRunsOnly()
     {
         var pair = Pair(new BaselinePolicy { Kind = BaselinePolicyKind.FirstRuns, FirstRuns = 2 });
         for (var h = 0; h < 4; h++)
@@ -101,10 +101,46 @@ public abstract class BaselineServiceContract : IAsyncLifetime
         Assert.True(kept.Accepted);
         Assert.Equal([3], HoursIn(kept));
 
-        Assert.True(await _service.ResetAsync(pair.Name, CancellationToken.None));
-        var rebuilt = (await _service.GetOrBuildAsync(pair, T0.AddHours(7), CancellationToken.None))!;
+        Assert.True(await _service.ResetAsync(pair.Name, T0.AddHours(6).AddMinutes(30), CancellationToken.None));
+        Assert.Equal(T0.AddHours(6).AddMinutes(30), await _service.GetResetAsync(pair.Name, CancellationToken.None));
+
+        // The four runs stored before the reset describe what was reset: first_runs 2 waits for two new ones.
+        Assert.Null(await _service.GetOrBuildAsync(pair, T0.AddHours(7), CancellationToken.None));
+        await RecordAsync(pair, 8, slope: 3);
+        Assert.Null(await _service.GetOrBuildAsync(pair, T0.AddHours(8).AddMinutes(1), CancellationToken.None));
+        await RecordAsync(pair, 9, slope: 3);
+        var rebuilt = (await _service.GetOrBuildAsync(pair, T0.AddHours(9).AddMinutes(1), CancellationToken.None))!;
         Assert.False(rebuilt.Accepted);
-        Assert.Equal([0, 1], HoursIn(rebuilt));
+        Assert.Equal([8, 9], HoursIn(rebuilt));
+        // Oracle: MathNet's least-squares line through the pooled points of the two new runs (y = 3x + (i mod 5)).
+        Assert.Equal(MathNet.Numerics.Fit.Line(rebuilt.Points.X, rebuilt.Points.Y).B, rebuilt.Profile.Slope!.Value, 9);
+    }
+
+    [Fact]
+    public async Task Reset_UnderARollingPolicy_NeverReachesBackPastTheReset()
+    {
+        var pair = Pair(new BaselinePolicy { Kind = BaselinePolicyKind.Rolling, RollingPeriod = TimeSpan.FromHours(10) });
+        for (var h = 0; h < 6; h++)
+        {
+            await RecordAsync(pair, h);
+        }
+
+        var before = (await _service.GetOrBuildAsync(pair, T0.AddHours(6), CancellationToken.None))!;
+        Assert.Equal([0, 1, 2, 3, 4, 5], HoursIn(before));
+        await _service.ResetAsync(pair.Name, T0.AddHours(6).AddMinutes(10), CancellationToken.None);
+        for (var h = 7; h < 9; h++)
+        {
+            await RecordAsync(pair, h);
+        }
+
+        // The rolling period [−1 h, 9 h) still covers hours 0–5, but they came before the reset.
+        var after = (await _service.GetOrBuildAsync(pair, T0.AddHours(9), CancellationToken.None))!;
+        Assert.Equal([7, 8], HoursIn(after));
+
+        // Accepting a run clears the reset: the accepted run anchors the rolling period from then on.
+        var accepted = (await _service.AcceptLatestAsync(pair, T0.AddHours(9).AddMinutes(5), CancellationToken.None))!;
+        Assert.Equal([8], HoursIn(accepted));
+        Assert.Null(await _service.GetResetAsync(pair.Name, CancellationToken.None));
     }
 
     [Fact]

@@ -6,7 +6,7 @@ using DriftWatch.Store;
 namespace DriftWatch.IntegrationTests.Store;
 
 /// <summary>
-/// Migration 009 on a store last migrated by an older release (scripts up to 007): runs, findings, baselines'
+/// Migration 009 on a store last migrated by an older release (scripts up to 008): runs, findings, baselines'
 /// judgement and ids are kept; runs.status accepts 'interrupted'; a run key is stored at most once (the database's
 /// own unique index refuses a second row, and the history store returns the first run's id).
 /// </summary>
@@ -25,7 +25,7 @@ public abstract class RunKeyMigrationContract : IAsyncLifetime
         Database = await _factory.CreateAsync();
         await using var connection = await Database.OpenAsync(CancellationToken.None);
         await connection.ExecuteAsync("CREATE TABLE schema_migrations (version INTEGER PRIMARY KEY, name TEXT NOT NULL, applied_at_ms BIGINT NOT NULL)");
-        foreach (var script in MigrationRunner.LoadScripts(Database.Dialect).Where(s => s.Version <= 7))
+        foreach (var script in MigrationRunner.LoadScripts(Database.Dialect).Where(s => s.Version <= 8))
         {
             await connection.ExecuteAsync(script.Sql);
             await connection.ExecuteAsync("INSERT INTO schema_migrations (version, name, applied_at_ms) VALUES (@Version, @Name, 0)", new { script.Version, script.Name });

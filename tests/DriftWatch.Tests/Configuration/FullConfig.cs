@@ -119,6 +119,7 @@ internal static class FullConfig
           bind: 0.0.0.0
           port: 9000
           access_token: ${DASH_TOKEN}
+          user_header: X-Forwarded-User
         logging:
           format: json
           file: logs/dw.log

@@ -87,7 +87,7 @@ internal static class DigestHtml
         if (section.DashboardUrl is { } url)
         {
             html.Append("<p style=\"font-size:14px;margin:8px 0 0;\"><a href=\"").Append(H(url)).Append("\" style=\"color:#0E7490;\">Open ")
-                .Append(H(section.Pair)).Append(" on the dashboard</a> (history, acknowledge, snooze)</p>\n");
+                .Append(H(section.Pair)).Append(" on the dashboard</a> (history) · <a href=\"").Append(H(url + "#triage")).Append("\" style=\"color:#0E7490;\">acknowledge, snooze or accept a baseline</a> (after signing in to the dashboard)</p>\n");
         }
 
         html.Append("</div>\n");
@@ -112,6 +112,13 @@ internal static class DigestHtml
         if (item.Notification.Kind is NotificationKind.Reminder or NotificationKind.Escalated && alert.ConfirmedAt is { } confirmed)
         {
             html.Append(" <span style=\"color:#6B7280;\">(confirmed since ").Append(H(FigureFormat.Time(confirmed))).Append(")</span>");
+        }
+
+        // The id 'driftwatch alerts ack' and the dashboard's audit log name the alert by; a new alert has none yet
+        // when its digest is composed (it is stored in the same transaction), so only known ids are shown.
+        if (alert.Id > 0)
+        {
+            html.Append(" <span style=\"color:#6B7280;\">(alert #").Append(alert.Id.ToString(System.Globalization.CultureInfo.InvariantCulture)).Append(")</span>");
         }
 
         if (alert.IsAcked)

@@ -32,6 +32,11 @@ internal static class DigestPlainText
                     text.Append(" (confirmed since ").Append(FigureFormat.Time(confirmed)).Append(')');
                 }
 
+                if (item.Alert.Id > 0)
+                {
+                    text.Append(" (alert #").Append(item.Alert.Id.ToString(System.Globalization.CultureInfo.InvariantCulture)).Append(')');
+                }
+
                 text.Append('\n');
             }
 
@@ -52,7 +57,8 @@ internal static class DigestPlainText
 
             if (section.DashboardUrl is { } url)
             {
-                text.Append("  Dashboard: ").Append(url).Append('\n');
+                text.Append("  Dashboard: ").Append(url).Append('\n')
+                    .Append("  Acknowledge, snooze or accept a baseline (dashboard sign-in needed): ").Append(url).Append("#triage\n");
             }
 
             text.Append('\n');

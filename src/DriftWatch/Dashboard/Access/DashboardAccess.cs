@@ -29,6 +29,7 @@ internal sealed class DashboardAccess
             _tokenHash = SHA256.HashData(Encoding.UTF8.GetBytes(config.AccessToken));
         }
 
+        UserHeader = string.IsNullOrEmpty(config.UserHeader) ? null : config.UserHeader;
         time ??= TimeProvider.System;
         Sessions = new DashboardSessions(time);
         Throttle = new LoginThrottle(time);
@@ -50,6 +51,31 @@ internal sealed class DashboardAccess
     }
 
     public bool TokenRequired => _tokenHash is not null;
+
+    /// <summary>The header a trusted proxy names the user in (dashboard.user_header); null when none is configured, and then no header is read.</summary>
+    public string? UserHeader { get; }
+
+    /// <summary>The live session of this request's cookie, if any.</summary>
+    public DashboardSession? SessionOf(HttpRequest request)
+    {
+        ArgumentNullException.ThrowIfNull(request);
+        return request.Cookies.TryGetValue(CookieName, out var cookie) ? Sessions.Get(cookie) : null;
+    }
+
+    /// <summary>
+    /// Who is acting: the configured proxy header's value when there is one, else the name given at sign-in; null
+    /// when neither names anyone.
+    /// </summary>
+    public string? ActorName(HttpRequest request, DashboardSession? session)
+    {
+        ArgumentNullException.ThrowIfNull(request);
+        if (UserHeader is not null && Triage.Actor.Clean(request.Headers[UserHeader].ToString()) is { } proxied)
+        {
+            return proxied;
+        }
+
+        return session?.Name;
+    }
 
     public DashboardSessions Sessions { get; }
 

@@ -12,7 +12,8 @@ namespace DriftWatch.Dashboard.Pages;
 /// </summary>
 internal static class PairPage
 {
-    public static string Render(PageContext context, PairDetail detail)
+    /// <param name="triage">The actions and audit section; null leaves it out (the static export).</param>
+    public static string Render(PageContext context, PairDetail detail, TriagePanel? triage = null)
     {
         ArgumentNullException.ThrowIfNull(context);
         ArgumentNullException.ThrowIfNull(detail);
@@ -28,6 +29,10 @@ internal static class PairPage
             ConfigFacts.Render(html, summary);
             html.Close("div");
             HistoryTable.Render(html, context, detail);
+            if (triage is not null)
+            {
+                TriageSection.Render(html, context, detail, triage);
+            }
         });
     }
 
