@@ -1,6 +1,7 @@
 using System.CommandLine;
 using System.Globalization;
 using System.Text.Json.Serialization;
+using DriftWatch.Hosting;
 using DriftWatch.Output;
 using DriftWatch.Store;
 using DriftWatch.Triage;
@@ -41,7 +42,7 @@ internal static class AlertsLogCommand
                 throw new CliUsageException("--limit must be between 1 and 10000");
             }
 
-            await using var services = await CliServices.StartAsync(loaded, verbose: false, ct);
+            await using var services = await OneShotServices.StartAsync(loaded, verbose: false, ct);
             var entries = await services.GetRequiredService<IAuditStore>().ListAsync(parse.GetValue(pair), parse.GetValue(limit), ct);
             if (parse.GetValue(format) == OutputFormat.Json)
             {

@@ -1,4 +1,4 @@
-using DriftWatch.Alerts;
+using DriftWatch.Core.Alerting;
 using DriftWatch.Triage;
 
 namespace DriftWatch.Dashboard.Data;
