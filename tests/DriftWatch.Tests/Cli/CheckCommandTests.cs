@@ -135,7 +135,9 @@ public sealed class CheckCommandTests : IDisposable
         }
 
         Assert.Equal(1, (await CliRun.Of("check", "--config", ConfigPath)).ExitCode);
-        var accept = await CliRun.Of("baseline", "accept", "hours-vs-pallets", "--config", ConfigPath);
+        // The latest run carries the change's findings: adopting it needs --force (exit 1 without).
+        Assert.Equal(1, (await CliRun.Of("baseline", "accept", "hours-vs-pallets", "--config", ConfigPath)).ExitCode);
+        var accept = await CliRun.Of("baseline", "accept", "hours-vs-pallets", "--force", "--config", ConfigPath);
         Assert.Equal(0, accept.ExitCode);
         Assert.Contains("accepted", accept.Out, StringComparison.Ordinal);
 
