@@ -11,7 +11,7 @@ namespace DriftWatch.FaultTests.Infrastructure;
 /// <see cref="LoopbackSmtpServer.StopAsync"/>, <see cref="WorkerProcess.KillHardAsync"/>, …); what must hold after
 /// any of them is <see cref="AssertEveryMailOnceAsync"/> plus the test's own checks of runs and alerts.
 /// </summary>
-public sealed class FaultBench : IAsyncDisposable
+public sealed partial class FaultBench : IAsyncDisposable
 {
     public const string SourceTable = "loads";
     public const string SlowView = "slow_loads";
@@ -66,7 +66,11 @@ public sealed class FaultBench : IAsyncDisposable
     public void WriteConfig(WorkerSetup setup)
     {
         Setup = setup;
-        File.WriteAllText(ConfigPath, setup.Render(Source.ConnectionString, Store.ConnectionString, Smtp.Port, DashboardPort));
+        // Written beside and renamed over the file, as editors do: a running worker's watcher never reads half a
+        // file (a cut-off prefix can be valid YAML with fewer pairs, which would be a reload nobody asked for).
+        var temp = ConfigPath + ".new";
+        File.WriteAllText(temp, setup.Render(Source.ConnectionString, Store.ConnectionString, Smtp.Port, DashboardPort));
+        File.Move(temp, ConfigPath, overwrite: true);
     }
 
     /// <summary>Starts <c>driftwatch run</c> on the written configuration and waits until /healthz answers ok.</summary>
@@ -116,6 +120,9 @@ public sealed class FaultBench : IAsyncDisposable
         var name = new NpgsqlConnectionStringBuilder(database.ConnectionString).Database!;
         await _server.ExecuteAdminAsync($"ALTER DATABASE {name} ALLOW_CONNECTIONS false");
         await _server.ExecuteAdminAsync($"SELECT pg_terminate_backend(pid) FROM pg_stat_activity WHERE datname = '{name}'");
+        // The bench's own idle pooled sessions were ended too; drop them so its next read opens a new one.
+        using var pooled = new NpgsqlConnection(database.ConnectionString);
+        NpgsqlConnection.ClearPool(pooled);
     }
 
     public async Task StartDatabaseAsync(PostgresDatabase database)
