@@ -15,9 +15,18 @@ public sealed class StoreOutageTests(PostgresServer server)
     public async Task StoreStopped_RunsSpooled_WrittenOnceInOrderAfterRecovery_AlertsEvaluated_EachMailOnce_Serving()
     {
         await using var bench = await FaultBench.CreateAsync(server);
-        bench.WriteConfig(new WorkerSetup { Pairs = [new PairSpec(Pair, FaultBench.SourceTable)], CheckFailingAfter = 2 });
+        // The baseline is the first run, so a change to the data after it gives runs with findings to keep.
+        bench.WriteConfig(new WorkerSetup
+        {
+            Pairs = [new PairSpec(Pair, FaultBench.SourceTable)],
+            CheckFailingAfter = 2,
+            ExtraYaml = "defaults:\n  baseline: {first_runs: 1}\n",
+        });
         using var worker = await bench.StartWorkerAsync();
         await Eventually.TrueAsync("a succeeded run", async _ => (await bench.RunsAsync(Pair)).Any(r => r.Status == "succeeded"), worker.Transcript);
+        // A unit change (litres to a unit 2.2 times smaller), the kind of shift the checks are for.
+        await bench.Source.ExecuteAsync($"UPDATE {FaultBench.SourceTable} SET litres = litres * 2.2");
+        await Eventually.TrueAsync("a run with findings", async _ => (await bench.StoredRunsAsync(Pair)).Any(r => r.Findings > 0), worker.Transcript);
         var before = await bench.StoredRunsAsync(Pair);
 
         await bench.StopDatabaseAsync(bench.Store);
@@ -81,7 +90,8 @@ public sealed class StoreOutageTests(PostgresServer server)
         Assert.True(checks == after.Count, $"{checks} checks logged, {after.Count} runs stored\n{context}");
         // In order: the store's order (id) is the order the checks started, spooled runs included.
         Assert.True(after.Zip(after.Skip(1)).All(p => p.First.StartedAtMs <= p.Second.StartedAtMs), "runs out of order\n" + context);
-        // The runs of before the outage keep their findings.
+        // The runs of before the outage keep their findings, and checks after it find the shift again.
         Assert.All(before, r => Assert.Equal(r.Findings, byKey[r.RunKey!].Findings));
+        Assert.Contains(after, r => r.Id > before[^1].Id && !spooled.ContainsKey(r.RunKey!) && r.Findings > 0);
     }
 }
