@@ -137,7 +137,7 @@ internal static class BaselineCommand
     {
         ArgumentNullException.ThrowIfNull(b);
         var rows = b.Runs.Count > 0 ? b.Runs.Sum(r => (double)r.Rows) : b.Profile.NRows * (double)b.RunCount;
-        return string.Create(CultureInfo.InvariantCulture, $"pooled from {Readable.Count(b.RunCount)} runs, {Readable.Count(b.Points.UsedCount)} points, {Readable.Count((long)Math.Round(rows))} rows");
+        return string.Create(CultureInfo.InvariantCulture, $"pooled from {Figures.Count(b.RunCount)} runs, {Figures.Count(b.Points.UsedCount)} points, {Figures.Count((long)Math.Round(rows))} rows");
     }
 
     private static void Describe(CliConsole console, StoredBaseline b) =>

@@ -21,10 +21,10 @@ internal static class CheckOutput
             table.AddRow(
                 Markup.Escape(r.Pair.Name),
                 StatusMarkup(r),
-                Readable.Count(p?.NUsed),
-                Readable.Number(p?.PearsonR),
-                Readable.Number(p?.SpearmanRho),
-                Readable.Number(p?.Slope),
+                Figures.Count(p?.NUsed),
+                Figures.Number(p?.PearsonR),
+                Figures.Number(p?.SpearmanRho),
+                Figures.Number(p?.Slope),
                 p is null ? "" : JsonContract.Name(p.Shape),
                 worst is null ? r.Status switch
                 {

@@ -65,10 +65,10 @@ internal static class HistoryCommand
                 table.AddRow(
                     run.StartedAt.UtcDateTime.ToString("yyyy-MM-dd HH:mm:ss", CultureInfo.InvariantCulture),
                     RunStatusText.Markup(run.Status),
-                    Readable.Count(p?.NUsed),
-                    Readable.Number(p?.PearsonR),
-                    Readable.Number(p?.SpearmanRho),
-                    Readable.Number(p?.Slope),
+                    Figures.Count(p?.NUsed),
+                    Figures.Number(p?.PearsonR),
+                    Figures.Number(p?.SpearmanRho),
+                    Figures.Number(p?.Slope),
                     p is null ? "" : JsonContract.Name(p.Shape),
                     run.Status != RunStatus.Succeeded
                         ? "[red]" + Markup.Escape(run.Error ?? "") + "[/]"

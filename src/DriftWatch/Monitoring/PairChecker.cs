@@ -136,7 +136,7 @@ internal sealed class PairChecker(
             return findings;
         }
 
-        var listed = string.Join("; ", rows.Select(r => $"{pair.X} = {Output.Readable.Number(r.X)}, {pair.Y} = {Output.Readable.Number(r.Y)}"));
+        var listed = string.Join("; ", rows.Select(r => $"{pair.X} = {Output.Figures.Number(r.X)}, {pair.Y} = {Output.Figures.Number(r.Y)}"));
         var named = hidden with { Message = $"{hidden.Message} Rows farthest from the sample's line: {listed}." };
         return [.. findings.Select(f => ReferenceEquals(f, hidden) ? named : f)];
     }

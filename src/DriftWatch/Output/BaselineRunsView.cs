@@ -30,25 +30,25 @@ internal static class BaselineRunsView
             table.AddRow(
                 r.RunId.ToString(CultureInfo.InvariantCulture),
                 r.StartedAt.UtcDateTime.ToString("MM-dd HH:mm", CultureInfo.InvariantCulture),
-                Readable.Count(r.Rows),
-                Readable.Count(r.SampleUsed),
-                Readable.Number(r.R),
-                Readable.Number(r.Slope),
-                Readable.Number(r.ResidualSd),
-                Readable.Percent(r.OutlierRate));
+                Figures.Count(r.Rows),
+                Figures.Count(r.SampleUsed),
+                Figures.Number(r.R),
+                Figures.Number(r.Slope),
+                Figures.Number(r.ResidualSd),
+                Figures.Percent(r.OutlierRate));
         }
 
         table.AddEmptyRow();
         table.AddRow(
             "[bold]mean[/]", string.Empty,
-            Readable.Number(Mean(runs, r => r.Rows)), Readable.Number(Mean(runs, r => r.SampleUsed)),
-            Readable.Number(Mean(runs, r => r.R)), Readable.Number(Mean(runs, r => r.Slope)), Readable.Number(Mean(runs, r => r.ResidualSd)),
-            Readable.Percent(Mean(runs, r => r.OutlierRate)));
+            Figures.Number(Mean(runs, r => r.Rows)), Figures.Number(Mean(runs, r => r.SampleUsed)),
+            Figures.Number(Mean(runs, r => r.R)), Figures.Number(Mean(runs, r => r.Slope)), Figures.Number(Mean(runs, r => r.ResidualSd)),
+            Figures.Percent(Mean(runs, r => r.OutlierRate)));
         table.AddRow(
             "[bold]spread (SD)[/]", string.Empty,
-            Readable.Number(Sd(runs, r => r.Rows)), Readable.Number(Sd(runs, r => r.SampleUsed)),
-            Readable.Number(Sd(runs, r => r.R)), Readable.Number(Sd(runs, r => r.Slope)), Readable.Number(Sd(runs, r => r.ResidualSd)),
-            Readable.Percent(Sd(runs, r => r.OutlierRate)));
+            Figures.Number(Sd(runs, r => r.Rows)), Figures.Number(Sd(runs, r => r.SampleUsed)),
+            Figures.Number(Sd(runs, r => r.R)), Figures.Number(Sd(runs, r => r.Slope)), Figures.Number(Sd(runs, r => r.ResidualSd)),
+            Figures.Percent(Sd(runs, r => r.OutlierRate)));
         console.Write(table);
     }
 

@@ -36,12 +36,12 @@ internal static class FindingsView
         var parts = new List<string>(2);
         if (finding.PValue is not null)
         {
-            parts.Add("p " + Readable.Probability(finding.PValue));
+            parts.Add("p " + Output.Figures.PValue(finding.PValue));
         }
 
         if (finding.Effect is not null)
         {
-            parts.Add("effect " + Readable.Number(finding.Effect));
+            parts.Add("effect " + Output.Figures.Number(finding.Effect));
         }
 
         return parts.Count == 0 ? string.Empty : Markup.Escape("  (" + string.Join(", ", parts) + ")");

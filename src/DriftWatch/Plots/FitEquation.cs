@@ -1,8 +1,10 @@
+using DriftWatch.Output;
+
 namespace DriftWatch.Plots;
 
 /// <summary>
 /// A fitted equation as a reader writes it: "y = 8613 − 34.48·x", "y = 2.1 + 0.8·x − 0.013·x²". Each
-/// coefficient to <see cref="PlotNumbers.Digits"/> significant digits, the sign joined into the operator,
+/// coefficient to <see cref="Figures.Digits"/> significant digits, the sign joined into the operator,
 /// a term that rounds to zero left out (the constant too, unless it is the only term).
 /// </summary>
 internal static class FitEquation
@@ -17,14 +19,14 @@ internal static class FitEquation
         var first = true;
         for (var power = 0; power < coefficients.Length; power++)
         {
-            var value = PlotNumbers.Round(coefficients[power], PlotNumbers.Digits);
+            var value = Figures.RoundSignificant(coefficients[power], Figures.Digits);
             if (value == 0)
             {
                 continue;
             }
 
             var magnitude = Math.Abs(value);
-            var number = PlotNumbers.Sig(magnitude);
+            var number = Figures.Coefficient(magnitude);
             var term = power switch
             {
                 0 => number,
@@ -32,7 +34,7 @@ internal static class FitEquation
             };
             if (first)
             {
-                text.Append(' ').Append(value < 0 ? PlotNumbers.Minus.ToString() : string.Empty).Append(term);
+                text.Append(' ').Append(value < 0 ? Figures.Minus.ToString() : string.Empty).Append(term);
                 first = false;
             }
             else

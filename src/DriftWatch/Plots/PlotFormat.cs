@@ -1,13 +1,7 @@
-using System.Globalization;
-
 namespace DriftWatch.Plots;
 
 internal static class PlotFormat
 {
-    public static string Number(double value) => value.ToString("G4", CultureInfo.InvariantCulture);
-
-    public static string Count(int value) => value.ToString("N0", CultureInfo.InvariantCulture);
-
     /// <summary>
     /// At most <paramref name="max"/> points, taken at even strides so the picture is the same on every
     /// render (no random thinning); the store already caps points per run, this guards hand-made inputs.

@@ -1,4 +1,5 @@
 using DriftWatch.Core.Statistics;
+using DriftWatch.Output;
 
 namespace DriftWatch.Plots;
 
@@ -16,8 +17,8 @@ internal static class ScatterCaption
 
         var parts = new List<string>();
         var drawn = model.Series.Select(s => s.Name == "baseline"
-            ? $"grey open circles: the baseline ({PlotNumbers.Count(s.Count)} points)"
-            : $"teal dots: the latest run ({PlotNumbers.Count(s.Count)} points)");
+            ? $"grey open circles: the baseline ({Figures.Count(s.Count)} points)"
+            : $"teal dots: the latest run ({Figures.Count(s.Count)} points)");
         parts.Add(Capitalise(string.Join("; ", drawn)) + ".");
         parts.Add(model.Series.Any(s => s.Fit is { Quadratic: true })
             ? "Curves: the least-squares parabola where the profile found curvature, else the straight line."
@@ -31,14 +32,14 @@ internal static class ScatterCaption
         var outlying = model.Series.Sum(s => s.Outlying.Count);
         if (outlying > 0)
         {
-            parts.Add($"× marks {Points(outlying)} more than {PlotNumbers.Sig(thresholds.OutlierT)} studentized residuals off their line.");
+            parts.Add($"× marks {Points(outlying)} more than {Figures.Coefficient(thresholds.OutlierT)} studentized residuals off their line.");
         }
 
         if (model.OffScale.Count > 0)
         {
             var shown = model.Labels.Count;
             var groups = model.OffScale.Select(p => ScatterPlotModelBuilder.Text(p, model.XName, model.YName)).Distinct().Count();
-            var more = groups > shown ? $", {PlotNumbers.Count(groups - shown)} more values not labelled" : string.Empty;
+            var more = groups > shown ? $", {Figures.Count(groups - shown)} more values not labelled" : string.Empty;
             parts.Add($"{Points(model.OffScale.Count)} far outside the bulk {(model.OffScale.Count == 1 ? "is" : "are")} drawn as triangles at the edge, labelled with their values{more}.");
         }
 
@@ -46,7 +47,7 @@ internal static class ScatterCaption
         return string.Join(" ", parts);
     }
 
-    private static string Points(int count) => count == 1 ? "1 point" : $"{PlotNumbers.Count(count)} points";
+    private static string Points(int count) => count == 1 ? "1 point" : $"{Figures.Count(count)} points";
 
     private static string Capitalise(string text) => text.Length == 0 ? text : char.ToUpperInvariant(text[0]) + text[1..];
 }

@@ -1,5 +1,6 @@
 using DriftWatch.Core.Profiling;
 using DriftWatch.Core.Statistics;
+using DriftWatch.Output;
 
 namespace DriftWatch.Plots;
 
@@ -143,7 +144,7 @@ internal static class ScatterPlotModelBuilder
             .Take(MaxLabels)
             .Select(g => new OffScaleLabel(
                 new PlotPoint(g.Average(p => p.Drawn.X), g.Average(p => p.Drawn.Y)),
-                g.Count() == 1 ? g.Key : $"{g.Key} ({PlotNumbers.Count(g.Count())} points)",
+                g.Count() == 1 ? g.Key : $"{g.Key} ({Figures.Count(g.Count())} points)",
                 g.First().Side))];
     }
 
@@ -153,12 +154,12 @@ internal static class ScatterPlotModelBuilder
         var parts = new List<string>(2);
         if ((p.Side & (OffScaleSide.Left | OffScaleSide.Right)) != 0)
         {
-            parts.Add($"{xName} = {PlotNumbers.Sig(p.X, 6)}");
+            parts.Add($"{xName} = {Figures.Coefficient(p.X, 6)}");
         }
 
         if ((p.Side & (OffScaleSide.Above | OffScaleSide.Below)) != 0)
         {
-            parts.Add($"{yName} = {PlotNumbers.Sig(p.Y, 6)}");
+            parts.Add($"{yName} = {Figures.Coefficient(p.Y, 6)}");
         }
 
         return string.Join(", ", parts);

@@ -1,3 +1,4 @@
+using DriftWatch.Output;
 using ScottPlot;
 
 namespace DriftWatch.Plots;
@@ -75,7 +76,7 @@ internal static class ScatterPlotRenderer
                 baseline ? MarkerShape.OpenCircle : MarkerShape.FilledCircle,
                 5,
                 pointColor);
-            points.LegendText = $"{series.Name} points (n = {PlotNumbers.Count(series.Count)})";
+            points.LegendText = $"{series.Name} points (n = {Figures.Count(series.Count)})";
         }
 
         if (series.Outlying.Count > 0)
@@ -87,7 +88,7 @@ internal static class ScatterPlotRenderer
                 9,
                 baseline ? PlotPalette.BaselineLine : PlotPalette.Critical);
             outlying.MarkerLineWidth = 2;
-            outlying.LegendText = $"{series.Name} outlying points ({PlotNumbers.Count(series.Outlying.Count)})";
+            outlying.LegendText = $"{series.Name} outlying points ({Figures.Count(series.Outlying.Count)})";
         }
 
         if (series.Fit is { } fit)

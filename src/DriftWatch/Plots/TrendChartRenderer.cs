@@ -1,5 +1,6 @@
 using System.Globalization;
 using DriftWatch.Core.Findings;
+using DriftWatch.Output;
 using ScottPlot;
 
 namespace DriftWatch.Plots;
@@ -68,7 +69,7 @@ internal static class TrendChartRenderer
         plot.Axes.SetLimitsY(model.Y.Min, model.Y.Max);
         if (plot.Axes.Left.TickGenerator is ScottPlot.TickGenerators.NumericAutomatic numeric)
         {
-            numeric.LabelFormatter = v => PlotNumbers.Sig(v);
+            numeric.LabelFormatter = v => Figures.Coefficient(v);
         }
 
         plot.Title(model.Title, 13);

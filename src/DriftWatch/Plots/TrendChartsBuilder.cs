@@ -1,6 +1,7 @@
 using DriftWatch.Core.Baselines;
 using DriftWatch.Core.History;
 using DriftWatch.Core.Statistics;
+using DriftWatch.Output;
 
 namespace DriftWatch.Plots;
 
@@ -23,10 +24,10 @@ internal static class TrendChartsBuilder
             .ToArray();
         var baseRuns = baseline?.Runs ?? [];
         double alpha = thresholds.Alpha;
-        var level = PlotNumbers.Percent(1 - alpha);
+        var level = Figures.Percent(1 - alpha);
         var bandText = baseRuns.Count == 0
             ? "No baseline runs yet, so no band."
-            : $"Band: the baseline's normal range ({level} prediction range of its {PlotNumbers.Count(baseRuns.Count)} runs, as the comparison computes it); line: their mean.";
+            : $"Band: the baseline's normal range ({level} prediction range of its {Figures.Count(baseRuns.Count)} runs, as the comparison computes it); line: their mean.";
 
         TrendChartModel Chart(string id, string title, string label, Func<RunFigures, double?> value, NormalRange? band, string lookFor, double? floor = null, double? ceiling = null)
         {

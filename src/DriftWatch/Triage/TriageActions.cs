@@ -138,7 +138,7 @@ internal sealed class TriageActions(IAlertStore alerts, IHistoryStore history, B
     private Task<long> RecordAsync(DateTimeOffset at, Actor actor, AuditAction action, string? pair, long? alertId, long? runId, string? reason, string? detail, CancellationToken cancellationToken) =>
         audit.AppendAsync(new AuditEntry(0, at, actor.Name, actor.Via, action, pair, alertId, runId, Actor.Clean(reason), detail), cancellationToken);
 
-    private static string Num(double? value) => value is { } v && double.IsFinite(v) ? Output.Readable.Number(v) : "—";
+    private static string Num(double? value) => Output.Figures.Number(value);
 
     private static string Time(DateTimeOffset at) => at.UtcDateTime.ToString("yyyy-MM-dd HH:mm 'UTC'", CultureInfo.InvariantCulture);
 

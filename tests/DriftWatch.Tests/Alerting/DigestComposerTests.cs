@@ -105,8 +105,8 @@ public sealed class DigestComposerTests
             Assert.Contains("0.818", text, StringComparison.Ordinal);
             Assert.Contains("0.991", text, StringComparison.Ordinal);
             Assert.Contains("< 0.001", text, StringComparison.Ordinal);
-            Assert.Contains("9.1 %", text, StringComparison.Ordinal);
-            Assert.Contains("1 (8.3 %)", text, StringComparison.Ordinal);
+            Assert.Contains("9.09%", text, StringComparison.Ordinal);
+            Assert.Contains("1 (8.33%)", text, StringComparison.Ordinal);
             Assert.Contains(DigestCautions.Signals, text, StringComparison.Ordinal);
         }
     }

@@ -259,7 +259,7 @@ public sealed class CheckCommandTests : IDisposable
         // Both pooled runs read the same 400 rows, so the spread between them is 0 and their r is MathNet's r.
         var runRows = show.Out.Split('\n').Where(l => l.Contains("│ 400 ", StringComparison.Ordinal)).ToArray();
         Assert.Equal(2, runRows.Length);
-        Assert.Contains(DriftWatch.Output.Readable.Number(Correlation.Pearson(_x, _y)), runRows[0], StringComparison.Ordinal);
+        Assert.Contains(DriftWatch.Output.Figures.Number(Correlation.Pearson(_x, _y)), runRows[0], StringComparison.Ordinal);
         var spread = Assert.Single(show.Out.Split('\n'), l => l.Contains("spread (SD)", StringComparison.Ordinal));
         Assert.Contains("│ 0 ", spread, StringComparison.Ordinal);
     }

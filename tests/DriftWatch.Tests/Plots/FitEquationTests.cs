@@ -1,3 +1,4 @@
+using DriftWatch.Output;
 using DriftWatch.Plots;
 
 namespace DriftWatch.Tests.Plots;
@@ -49,8 +50,8 @@ public sealed class FitEquationTests
     [Fact]
     public void Sig_NegativeNumbers_UseTheMinusSign_AndNoExponentForEverydayMagnitudes()
     {
-        Assert.Equal("\u22120.0123", PlotNumbers.Sig(-0.012345, 3));
-        Assert.Equal("99999", PlotNumbers.Sig(99999, 6));
-        Assert.Equal("1.235\u00D710\u2077", PlotNumbers.Sig(12_345_678));
+        Assert.Equal("\u22120.0123", Figures.Coefficient(-0.012345, 3));
+        Assert.Equal("99999", Figures.Coefficient(99999, 6));
+        Assert.Equal("1.235\u00D710\u2077", Figures.Coefficient(12_345_678));
     }
 }

@@ -1,4 +1,5 @@
 using DriftWatch.Core.Profiling;
+using DriftWatch.Output;
 
 namespace DriftWatch.Alerting.Digest;
 
@@ -23,27 +24,27 @@ internal static class DigestFigures
             window is not null || judged?.Rows is not null
                 ? new FigureRow(
                     "rows in the window",
-                    judged?.Rows is { } rows ? FigureFormat.Count((long)Math.Round(rows)) : baseline is null ? FigureFormat.Missing : FigureFormat.Count(baseline.NRows),
-                    window is not null ? FigureFormat.Count(window.RowCount) : current is null ? FigureFormat.Missing : FigureFormat.Count(current.NRows))
-                : Row("rows used (n)", baseline, current, p => FigureFormat.Count(p.NUsed)),
+                    judged?.Rows is { } rows ? Figures.Count((long)Math.Round(rows)) : baseline is null ? Figures.Missing : Figures.Count(baseline.NRows),
+                    window is not null ? Figures.Count(window.RowCount) : current is null ? Figures.Missing : Figures.Count(current.NRows))
+                : Row("rows used (n)", baseline, current, p => Figures.Count(p.NUsed)),
             judged is not null
-                ? new FigureRow("Pearson r", FigureFormat.Correlation(judged.PearsonR), current is null ? FigureFormat.Missing : FigureFormat.Correlation(current.PearsonR))
-                : Row("Pearson r", baseline, current, p => FigureFormat.Correlation(p.PearsonR)),
-            Row("Spearman ρ", baseline, current, p => FigureFormat.Correlation(p.SpearmanRho)),
+                ? new FigureRow("Pearson r", Figures.Correlation(judged.PearsonR), current is null ? Figures.Missing : Figures.Correlation(current.PearsonR))
+                : Row("Pearson r", baseline, current, p => Figures.Correlation(p.PearsonR)),
+            Row("Spearman ρ", baseline, current, p => Figures.Correlation(p.SpearmanRho)),
             judged is not null
-                ? new FigureRow("slope", FigureFormat.Number(judged.Slope), current is null ? FigureFormat.Missing : FigureFormat.Number(current.Slope))
-                : Row("slope", baseline, current, p => FigureFormat.Number(p.Slope)),
-            Row("curvature p", baseline, current, p => FigureFormat.PValue(p.QuadraticP)),
-            Row("outlier rate", baseline, current, p => FigureFormat.Percent(p.OutlierRate)),
+                ? new FigureRow("slope", Figures.Number(judged.Slope), current is null ? Figures.Missing : Figures.Number(current.Slope))
+                : Row("slope", baseline, current, p => Figures.Number(p.Slope)),
+            Row("curvature p", baseline, current, p => Figures.PValue(p.QuadraticP)),
+            Row("outlier rate", baseline, current, p => Figures.Percent(p.OutlierRate)),
             Row("nulls", baseline, current, Nulls),
         ];
     }
 
     private static FigureRow Row(string name, RelationshipProfile? baseline, RelationshipProfile? current, Func<RelationshipProfile, string> figure) =>
-        new(name, baseline is null ? FigureFormat.Missing : figure(baseline), current is null ? FigureFormat.Missing : figure(current));
+        new(name, baseline is null ? Figures.Missing : figure(baseline), current is null ? Figures.Missing : figure(current));
 
     private static string Nulls(RelationshipProfile p) =>
         p.NRows > 0
-            ? $"{FigureFormat.Count(p.NNull)} ({FigureFormat.Percent((double)p.NNull / p.NRows)})"
-            : FigureFormat.Count(p.NNull);
+            ? $"{Figures.Count(p.NNull)} ({Figures.Percent((double)p.NNull / p.NRows)})"
+            : Figures.Count(p.NNull);
 }

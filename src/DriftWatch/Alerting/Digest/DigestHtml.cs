@@ -1,7 +1,8 @@
-using System.Text;
 using System.Text.Encodings.Web;
 using System.Text.Unicode;
+using System.Text;
 using DriftWatch.Core.Alerting;
+using DriftWatch.Output;
 
 namespace DriftWatch.Alerting.Digest;
 
@@ -25,7 +26,7 @@ internal static class DigestHtml
             .Append("<title>").Append(H(model.Subject)).Append("</title></head>\n")
             .Append("<body style=\"margin:0;padding:0;background:#F3F4F6;\">\n")
             .Append("<div style=\"max-width:700px;margin:0 auto;padding:24px 16px;font-family:").Append(Font).Append(";color:#111827;\">\n")
-            .Append("<div style=\"font-size:13px;color:#6B7280;\">DriftWatch · mailing list ").Append(H(model.MailingList)).Append(" · ").Append(H(FigureFormat.Time(model.At))).Append("</div>\n")
+            .Append("<div style=\"font-size:13px;color:#6B7280;\">DriftWatch · mailing list ").Append(H(model.MailingList)).Append(" · ").Append(H(Output.Figures.Time(model.At))).Append("</div>\n")
             .Append("<h1 style=\"font-size:20px;font-weight:600;margin:4px 0 16px;\">").Append(H(DigestCautions.Summary(items))).Append("</h1>\n");
 
         foreach (var section in model.Sections)
@@ -111,7 +112,7 @@ internal static class DigestHtml
             .Append(H(alert.Message));
         if (item.Notification.Kind is NotificationKind.Reminder or NotificationKind.Escalated && alert.ConfirmedAt is { } confirmed)
         {
-            html.Append(" <span style=\"color:#6B7280;\">(confirmed since ").Append(H(FigureFormat.Time(confirmed))).Append(")</span>");
+            html.Append(" <span style=\"color:#6B7280;\">(confirmed since ").Append(H(Output.Figures.Time(confirmed))).Append(")</span>");
         }
 
         // The id 'driftwatch alerts ack' and the dashboard's audit log name the alert by; a new alert has none yet

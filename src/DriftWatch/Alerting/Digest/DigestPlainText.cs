@@ -1,5 +1,6 @@
 using System.Text;
 using DriftWatch.Core.Alerting;
+using DriftWatch.Output;
 
 namespace DriftWatch.Alerting.Digest;
 
@@ -10,7 +11,7 @@ internal static class DigestPlainText
     {
         var items = model.Sections.SelectMany(s => s.Items).ToArray();
         var text = new StringBuilder(4 * 1024);
-        text.Append("DriftWatch · mailing list ").Append(model.MailingList).Append(" · ").Append(FigureFormat.Time(model.At)).Append('\n')
+        text.Append("DriftWatch · mailing list ").Append(model.MailingList).Append(" · ").Append(Figures.Time(model.At)).Append('\n')
             .Append(DigestCautions.Summary(items)).Append("\n\n");
 
         foreach (var section in model.Sections)
@@ -29,7 +30,7 @@ internal static class DigestPlainText
                 text.Append(AlertWording.Phrase(item.Alert.Kind)).Append(": ").Append(item.Alert.Message);
                 if (item.Notification.Kind is NotificationKind.Reminder or NotificationKind.Escalated && item.Alert.ConfirmedAt is { } confirmed)
                 {
-                    text.Append(" (confirmed since ").Append(FigureFormat.Time(confirmed)).Append(')');
+                    text.Append(" (confirmed since ").Append(Figures.Time(confirmed)).Append(')');
                 }
 
                 if (item.Alert.Id > 0)

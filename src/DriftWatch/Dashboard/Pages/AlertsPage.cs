@@ -65,7 +65,7 @@ internal static class AlertsPage
     private static void Tile(Html html, int n, string label, string css)
     {
         html.Open("div", ("class", "tile " + css + (n == 0 ? " tile-zero" : string.Empty)));
-        html.Element("span", n.ToString("N0", CultureInfo.InvariantCulture), ("class", "tile-n"));
+        html.Element("span", Figures.Count(n), ("class", "tile-n"));
         html.Element("span", label, ("class", "tile-label"));
         html.Close("div");
     }
@@ -102,9 +102,9 @@ internal static class AlertsPage
             html.Element("td", entry.Subject, ("class", "message"));
             html.Element("td", string.Join(", ", entry.Recipients));
             html.Open("td").Element("span", state, ("class", "delivery dl-" + state)).Close("td");
-            html.Element("td", entry.Attempts.ToString("N0", CultureInfo.InvariantCulture), ("class", "num"));
+            html.Element("td", Figures.Count(entry.Attempts), ("class", "num"));
             AlertsTable.TimeCell(html, context, entry.SentAt ?? entry.NextAttemptAt);
-            html.Element("td", entry.LastError ?? Display.Missing, ("class", entry.LastError is null ? "muted" : "error-line"));
+            html.Element("td", entry.LastError ?? Figures.Missing, ("class", entry.LastError is null ? "muted" : "error-line"));
             html.Close("tr");
         }
 

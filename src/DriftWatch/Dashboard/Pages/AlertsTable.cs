@@ -1,5 +1,6 @@
 using System.Globalization;
 using DriftWatch.Core.Alerting;
+using DriftWatch.Output;
 
 namespace DriftWatch.Dashboard.Pages;
 
@@ -56,7 +57,7 @@ internal static class AlertsTable
             TimeCell(html, context, alert.LastNotifiedAt);
             TimeCell(html, context, alert.ClearedAt);
             TimeCell(html, context, alert.AckedAt);
-            html.Element("td", alert.ConsecutiveRuns.ToString("N0", CultureInfo.InvariantCulture), ("class", "num"));
+            html.Element("td", Figures.Count(alert.ConsecutiveRuns), ("class", "num"));
             html.Element("td", alert.Message, ("class", "message"));
             html.Close("tr");
         }
@@ -80,7 +81,7 @@ internal static class AlertsTable
         }
         else
         {
-            html.Element("span", Display.Missing, ("class", "muted"));
+            html.Element("span", Figures.Missing, ("class", "muted"));
         }
 
         html.Close("td");

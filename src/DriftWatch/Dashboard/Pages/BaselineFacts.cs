@@ -28,12 +28,12 @@ internal static class BaselineFacts
         Fact(html, "Policy", baseline.PolicyText + (baseline.Accepted ? " (accepted by hand)" : string.Empty));
         Fact(html, "Built", Display.Time(baseline.CreatedAt));
         Fact(html, "Covers", $"{Display.Time(baseline.CoversFrom)} to {Display.Time(baseline.CoversTo)}");
-        Fact(html, "Pooled from", $"{Display.Count(baseline.RunCount)} runs, {Display.Count(baseline.Points.UsedCount)} points kept" +
-            (baseline.MeanRunUsed is { } perRun ? $", about {Display.Count((int)Math.Round(perRun))} usable rows per run" : string.Empty));
+        Fact(html, "Pooled from", $"{Figures.Count(baseline.RunCount)} runs, {Figures.Count(baseline.Points.UsedCount)} points kept" +
+            (baseline.MeanRunUsed is { } perRun ? $", about {Figures.Count((int)Math.Round(perRun))} usable rows per run" : string.Empty));
         Fact(html, "Pearson r", Readable.WithInterval(profile.PearsonR, profile.PearsonCiLow, profile.PearsonCiHigh) + " (95% CI)");
-        Fact(html, "Spearman ρ · Kendall τ-b", $"{Display.Correlation(profile.SpearmanRho)} · {Display.Correlation(profile.KendallTauB)}");
-        Fact(html, "Line", profile.Intercept is null || profile.Slope is null ? Display.Missing : $"y = {Display.Number(profile.Intercept)} + {Display.Number(profile.Slope)}·x");
-        Fact(html, "Outliers · nulls", $"{Display.Percent(profile.OutlierRate)} · {Display.Percent(profile.NRows == 0 ? null : (double)profile.NNull / profile.NRows)}");
+        Fact(html, "Spearman ρ · Kendall τ-b", $"{Figures.Correlation(profile.SpearmanRho)} · {Figures.Correlation(profile.KendallTauB)}");
+        Fact(html, "Line", profile.Intercept is null || profile.Slope is null ? Figures.Missing : $"y = {Figures.Number(profile.Intercept)} + {Figures.Number(profile.Slope)}·x");
+        Fact(html, "Outliers · nulls", $"{Figures.Percent(profile.OutlierRate)} · {Figures.Percent(profile.NRows == 0 ? null : (double)profile.NNull / profile.NRows)}");
         Fact(html, "Shape", JsonContract.Name(profile.Shape).Replace('_', ' '));
         html.Close("dl");
         html.Close("section");
@@ -42,6 +42,6 @@ internal static class BaselineFacts
     internal static void Fact(Html html, string term, string? value)
     {
         html.Element("dt", term);
-        html.Element("dd", string.IsNullOrEmpty(value) ? Display.Missing : value);
+        html.Element("dd", string.IsNullOrEmpty(value) ? Figures.Missing : value);
     }
 }

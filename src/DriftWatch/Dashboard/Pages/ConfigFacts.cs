@@ -72,10 +72,10 @@ internal static class ConfigFacts
 
     private static string Sample(SampleSpec sample)
     {
-        var text = $"{JsonContract.Name(sample.Method)}, up to {Display.Count(sample.Rows)} rows";
+        var text = $"{JsonContract.Name(sample.Method)}, up to {Figures.Count(sample.Rows)} rows";
         if (sample.Method == SampleMethod.Auto)
         {
-            text += $", whole table below {sample.AllRowsBelow.ToString("N0", CultureInfo.InvariantCulture)} rows";
+            text += $", whole table below {Figures.Count(sample.AllRowsBelow)} rows";
         }
 
         if (sample.Bernoulli)

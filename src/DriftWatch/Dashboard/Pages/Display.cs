@@ -4,34 +4,15 @@ using DriftWatch.Output;
 namespace DriftWatch.Dashboard.Pages;
 
 /// <summary>
-/// Numbers and times as the pages print them, invariant culture. Correlations get three decimals so a column
-/// of them lines up; other figures use <see cref="Readable"/>'s four significant digits. Every time is UTC.
+/// Times as the pages print them, invariant culture, every one UTC. Figures (numbers) come from
+/// <see cref="Figures"/>, the formatter the CLI, the digest and the plots share.
 /// </summary>
 internal static class Display
 {
-    public const string Missing = "–";
-
-    public static string Correlation(double? value) =>
-        value is { } v && double.IsFinite(v) ? v.ToString("0.000", CultureInfo.InvariantCulture) : Missing;
-
-    /// <summary>A change in r with its sign, so "+0.012" and "-0.340" read as moves.</summary>
-    public static string SignedCorrelation(double? value) =>
-        value is { } v && double.IsFinite(v) ? v.ToString("+0.000;-0.000;0.000", CultureInfo.InvariantCulture) : Missing;
-
-    public static string Number(double? value) => value is { } v && double.IsFinite(v) ? Readable.Number(v) : Missing;
-
-    public static string Probability(double? value) => value is { } v && double.IsFinite(v) ? Readable.Probability(v) : Missing;
-
-    public static string Percent(double? rate) =>
-        rate is { } r && double.IsFinite(r) ? (r * 100).ToString("0.0", CultureInfo.InvariantCulture) + "%" : Missing;
-
-    public static string Count(int? value) => value is { } v ? Readable.Count(v) : Missing;
-
     /// <summary>"2026-12-02 14:05 UTC".</summary>
-    public static string Time(DateTimeOffset at) =>
-        at.ToUniversalTime().ToString("yyyy-MM-dd HH:mm", CultureInfo.InvariantCulture) + " UTC";
+    public static string Time(DateTimeOffset at) => Figures.Time(at);
 
-    public static string Time(DateTimeOffset? at) => at is { } t ? Time(t) : Missing;
+    public static string Time(DateTimeOffset? at) => at is { } t ? Time(t) : Figures.Missing;
 
     /// <summary>"2026-12-02 14:05:09 UTC": history rows, where runs may be minutes apart.</summary>
     public static string TimeWithSeconds(DateTimeOffset at) =>

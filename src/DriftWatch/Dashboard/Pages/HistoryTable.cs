@@ -84,15 +84,15 @@ internal static class HistoryTable
         }
 
         html.Close("td");
-        Num(html, Display.Count(p?.NUsed));
-        Num(html, Display.Correlation(p?.PearsonR));
-        Num(html, Display.Correlation(p?.SpearmanRho));
-        Num(html, Display.Correlation(p?.KendallTauB));
-        Num(html, Display.Number(p?.Slope));
-        Num(html, Display.Number(p?.Intercept));
-        Num(html, Display.Probability(p?.QuadraticP));
-        Num(html, Display.Percent(p?.OutlierRate));
-        Num(html, Display.Percent(p is { NRows: > 0 } ? (double)p.NNull / p.NRows : null));
+        Num(html, Figures.Count(p?.NUsed));
+        Num(html, Figures.Correlation(p?.PearsonR));
+        Num(html, Figures.Correlation(p?.SpearmanRho));
+        Num(html, Figures.Correlation(p?.KendallTauB));
+        Num(html, Figures.Number(p?.Slope));
+        Num(html, Figures.Number(p?.Intercept));
+        Num(html, Figures.PValue(p?.QuadraticP));
+        Num(html, Figures.Percent(p?.OutlierRate));
+        Num(html, Figures.Percent(p is { NRows: > 0 } ? (double)p.NNull / p.NRows : null));
         html.Open("td", ("class", "run-findings"));
         if (failed || unmeasurable)
         {
@@ -128,10 +128,10 @@ internal static class HistoryTable
 
         var first = (detail.Page - 1) * detail.PageSize + 1;
         var last = first + detail.Runs.Count - 1;
-        var total = detail.TotalRuns.ToString("N0", CultureInfo.InvariantCulture);
+        var total = Figures.Count(detail.TotalRuns);
         return detail.Runs.Count == detail.TotalRuns
             ? $"all {total} runs, newest first"
-            : $"runs {first.ToString("N0", CultureInfo.InvariantCulture)}–{last.ToString("N0", CultureInfo.InvariantCulture)} of {total}, newest first";
+            : $"runs {Figures.Count(first)}–{Figures.Count(last)} of {total}, newest first";
     }
 
     private static void Pager(Html html, PageContext context, PairDetail detail)

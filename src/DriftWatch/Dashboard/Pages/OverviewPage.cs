@@ -3,6 +3,7 @@ using DriftWatch.Core.Configuration;
 using DriftWatch.Core.History;
 using DriftWatch.Core.Statistics;
 using DriftWatch.Dashboard.Data;
+using DriftWatch.Output;
 
 namespace DriftWatch.Dashboard.Pages;
 
@@ -199,21 +200,21 @@ internal static class OverviewPage
                 h.Element("span", Shorten(error, 140), ("class", "sub error-line"), ("title", error));
             }
         });
-        Cell(html, row.Source ?? string.Empty, h => h.Text(row.Source ?? Display.Missing));
-        Number(html, current?.PearsonR, Display.Correlation(current?.PearsonR));
-        Number(html, current?.SpearmanRho, Display.Correlation(current?.SpearmanRho));
-        Number(html, row.Baseline?.Profile.PearsonR, Display.Correlation(row.Baseline?.Profile.PearsonR));
-        Number(html, row.DeltaR, Display.SignedCorrelation(row.DeltaR),
-            row.DeltaR is { } d && Math.Abs(d) >= thresholds.MinCorrelationChange ? $"moved by at least the pair's {Display.Number(thresholds.MinCorrelationChange)}" : null);
-        Number(html, row.SlopeRatio, Display.Number(row.SlopeRatio),
-            row.SlopeRatio is { } s && Math.Abs(s - 1) >= thresholds.MinSlopeRatioChange ? $"differs from 1 by at least the pair's {Display.Number(thresholds.MinSlopeRatioChange)}" : null);
-        Number(html, current?.QuadraticP, Display.Probability(current?.QuadraticP),
+        Cell(html, row.Source ?? string.Empty, h => h.Text(row.Source ?? Figures.Missing));
+        Number(html, current?.PearsonR, Figures.Correlation(current?.PearsonR));
+        Number(html, current?.SpearmanRho, Figures.Correlation(current?.SpearmanRho));
+        Number(html, row.Baseline?.Profile.PearsonR, Figures.Correlation(row.Baseline?.Profile.PearsonR));
+        Number(html, row.DeltaR, Figures.SignedCorrelation(row.DeltaR),
+            row.DeltaR is { } d && Math.Abs(d) >= thresholds.MinCorrelationChange ? $"moved by at least the pair's {Figures.Number(thresholds.MinCorrelationChange)}" : null);
+        Number(html, row.SlopeRatio, Figures.Number(row.SlopeRatio),
+            row.SlopeRatio is { } s && Math.Abs(s - 1) >= thresholds.MinSlopeRatioChange ? $"differs from 1 by at least the pair's {Figures.Number(thresholds.MinSlopeRatioChange)}" : null);
+        Number(html, current?.QuadraticP, Figures.PValue(current?.QuadraticP),
             current?.QuadraticP < thresholds.Alpha && current?.QuadraticR2Gain >= thresholds.CurvatureMinR2Gain ? "the cloud bends (significant quadratic term)" : null);
-        Number(html, current?.OutlierRate, Display.Percent(current?.OutlierRate),
-            current?.OutlierRate > thresholds.MaxOutlierRate ? $"above the pair's {Display.Percent(thresholds.MaxOutlierRate)}" : null);
+        Number(html, current?.OutlierRate, Figures.Percent(current?.OutlierRate),
+            current?.OutlierRate > thresholds.MaxOutlierRate ? $"above the pair's {Figures.Percent(thresholds.MaxOutlierRate)}" : null);
         // An unmeasurable run still shows how many rows it could use (often 0): that is the news.
         var used = current?.NUsed ?? (row.Latest is { Status: RunStatus.Unmeasurable, Profile: { } counted } ? counted.NUsed : null);
-        Number(html, used, Display.Count(used));
+        Number(html, used, Figures.Count(used));
         LastRun(html, context, row.Latest);
         OpenAlerts(html, row);
         html.Close("tr");
@@ -288,7 +289,7 @@ internal static class OverviewPage
         html.Close("td");
     }
 
-    private static string Count(int n) => n.ToString("N0", CultureInfo.InvariantCulture);
+    private static string Count(int n) => Figures.Count(n);
 
     private static string Shorten(string text, int max) => text.Length <= max ? text : text[..(max - 1)] + "…";
 }

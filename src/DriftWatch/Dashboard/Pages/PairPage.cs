@@ -3,6 +3,7 @@ using DriftWatch.Core.Alerting;
 using DriftWatch.Core.Findings;
 using DriftWatch.Core.History;
 using DriftWatch.Dashboard.Data;
+using DriftWatch.Output;
 
 namespace DriftWatch.Dashboard.Pages;
 
@@ -150,10 +151,10 @@ internal static class PairPage
     /// <summary>The baseline this run was compared with, as recorded with the run, and the window's exact row count.</summary>
     private static string JudgedAgainstText(Core.History.RunRecord run, Core.History.BaselineSummary b)
     {
-        var window = run.SourceFigures is { } f ? $"The window held {Display.Number(f.RowCount)} rows. " : string.Empty;
-        return $"{window}Judged against the baseline built {Display.Time(b.CreatedAt)} from {Display.Count(b.RunCount)} runs"
+        var window = run.SourceFigures is { } f ? $"The window held {Figures.Number(f.RowCount)} rows. " : string.Empty;
+        return $"{window}Judged against the baseline built {Display.Time(b.CreatedAt)} from {Figures.Count(b.RunCount)} runs"
             + $" ({Display.Time(b.CoversFrom)} to {Display.Time(b.CoversTo)}{(b.Accepted ? ", accepted" : string.Empty)}):"
-            + $" r {Display.Number(b.PearsonR)}, slope {Display.Number(b.Slope)}, about {Display.Number(b.Rows)} rows per run.";
+            + $" r {Figures.Number(b.PearsonR)}, slope {Figures.Number(b.Slope)}, about {Figures.Number(b.Rows)} rows per run.";
     }
 
     /// <summary>Only a pair with a baseline can look "as it did"; without one, say what is still missing.</summary>
@@ -170,7 +171,7 @@ internal static class PairPage
         {
             return needed == 0
                 ? $"{lead}; the baseline ({policy}) is built at the next check."
-                : $"{lead}; the baseline ({policy}) needs {Display.Count(needed)} more measurable run{(needed == 1 ? "" : "s")}.";
+                : $"{lead}; the baseline ({policy}) needs {Figures.Count(needed)} more measurable run{(needed == 1 ? "" : "s")}.";
         }
 
         return lead + ".";
@@ -181,12 +182,12 @@ internal static class PairPage
         var parts = new List<string>();
         if (finding.Effect is { } effect)
         {
-            parts.Add("effect " + Display.Number(effect));
+            parts.Add("effect " + Figures.Number(effect));
         }
 
         if (finding.PValue is { } p)
         {
-            parts.Add("p " + (p < 1e-4 ? "< 0.0001" : "= " + Display.Number(p)));
+            parts.Add("p " + (p < 1e-4 ? "< 0.0001" : "= " + Figures.Number(p)));
         }
 
         return parts.Count == 0 ? null : string.Join(" · ", parts);
@@ -229,7 +230,7 @@ internal static class PairPage
         html.Element("h2", "Figures over time", ("id", "trend-title"));
         html.Element(
             "p",
-            $"The latest {shown.ToString("N0", CultureInfo.InvariantCulture)} successful runs. Shaded band: the range the baseline's runs make normal; "
+            $"The latest {Figures.Count(shown)} successful runs. Shaded band: the range the baseline's runs make normal; "
             + "markers: runs with findings, by worst severity (▲ warning, ◆ critical, ○ info). Read the charts together: which figure stepped tells what changed.",
             ("class", "muted"));
         html.Open("div", ("class", "trend-grid"));
@@ -251,7 +252,7 @@ internal static class PairPage
             ? $"The run of {Display.Time(run.StartedAt)}"
             : "No recent run still has its sampled points";
         var baseline = detail.Summary.Baseline is { } b
-            ? $"the baseline's reservoir of {Display.Count(b.Points.UsedCount)} points from {Display.Count(b.RunCount)} runs"
+            ? $"the baseline's reservoir of {Figures.Count(b.Points.UsedCount)} points from {Figures.Count(b.RunCount)} runs"
             : "no baseline yet";
         return $"{current} over {baseline}.";
     }

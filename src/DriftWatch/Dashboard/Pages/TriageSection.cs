@@ -1,6 +1,7 @@
 using System.Globalization;
 using DriftWatch.Core.History;
 using DriftWatch.Dashboard.Data;
+using DriftWatch.Output;
 using DriftWatch.Store;
 using DriftWatch.Triage;
 
@@ -137,7 +138,7 @@ internal static class TriageSection
                 foreach (var run in candidates)
                 {
                     var worst = run.WorstSeverity is { } w ? Output.JsonContract.Name(w) + " findings" : "no findings";
-                    var text = $"run {run.Id.ToString(CultureInfo.InvariantCulture)} · {Display.Time(run.StartedAt)} · r {Display.Correlation(run.Profile?.PearsonR)} · {worst}";
+                    var text = $"run {run.Id.ToString(CultureInfo.InvariantCulture)} · {Display.Time(run.StartedAt)} · r {Figures.Correlation(run.Profile?.PearsonR)} · {worst}";
                     html.Element("option", text, ("value", run.Id.ToString(CultureInfo.InvariantCulture)));
                 }
 
