@@ -17,7 +17,7 @@ internal static class ScatterCaption
 
         var parts = new List<string>();
         var drawn = model.Series.Select(s => s.Name == "baseline"
-            ? $"grey open circles: the baseline ({Figures.Count(s.Count)} points)"
+            ? $"grey open circles: the baseline ({Figures.Count(s.Count)} points, from all the runs it pools)"
             : $"teal dots: the latest run ({Figures.Count(s.Count)} points)");
         parts.Add(Capitalise(string.Join("; ", drawn)) + ".");
         parts.Add(model.Series.Any(s => s.Fit is { Quadratic: true })

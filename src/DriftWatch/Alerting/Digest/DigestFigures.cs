@@ -1,3 +1,4 @@
+using DriftWatch.Core.History;
 using DriftWatch.Core.Profiling;
 using DriftWatch.Output;
 
@@ -19,14 +20,15 @@ internal static class DigestFigures
         RelationshipProfile? baseline = context.Baseline, current = context.Current;
         var judged = context.JudgedAgainst;
         var window = context.Window;
+        var size = window is not null || judged?.Rows is not null
+            ? new FigureRow(
+                "rows in the window",
+                judged?.Rows is { } rows ? Figures.Count((long)Math.Round(rows)) : baseline is null ? Figures.Missing : Figures.Count(baseline.NRows),
+                window is not null ? Figures.Count(window.RowCount) : current is null ? Figures.Missing : Figures.Count(current.NRows))
+            : Row("rows used (n)", baseline, current, p => Figures.Count(p.NUsed));
         return
         [
-            window is not null || judged?.Rows is not null
-                ? new FigureRow(
-                    "rows in the window",
-                    judged?.Rows is { } rows ? Figures.Count((long)Math.Round(rows)) : baseline is null ? Figures.Missing : Figures.Count(baseline.NRows),
-                    window is not null ? Figures.Count(window.RowCount) : current is null ? Figures.Missing : Figures.Count(current.NRows))
-                : Row("rows used (n)", baseline, current, p => Figures.Count(p.NUsed)),
+            size with { Baseline = PerRun(size.Baseline, judged) },
             judged is not null
                 ? new FigureRow("Pearson r", Figures.Correlation(judged.PearsonR), current is null ? Figures.Missing : Figures.Correlation(current.PearsonR))
                 : Row("Pearson r", baseline, current, p => Figures.Correlation(p.PearsonR)),
@@ -39,6 +41,13 @@ internal static class DigestFigures
             Row("nulls", baseline, current, Nulls),
         ];
     }
+
+    /// <summary>
+    /// A pooled baseline's row count is one run's (the mean over its runs), while its plot draws the points of all
+    /// its runs: say so, so the table and the legend do not seem to disagree.
+    /// </summary>
+    internal static string PerRun(string cell, BaselineSummary? judged) =>
+        judged is { RunCount: > 1 } && cell != Figures.Missing ? $"{cell} per run ({Figures.Count(judged.RunCount)} runs)" : cell;
 
     private static FigureRow Row(string name, RelationshipProfile? baseline, RelationshipProfile? current, Func<RelationshipProfile, string> figure) =>
         new(name, baseline is null ? Figures.Missing : figure(baseline), current is null ? Figures.Missing : figure(current));
