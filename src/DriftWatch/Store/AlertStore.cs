@@ -31,10 +31,17 @@ internal sealed class AlertStore(IStoreDatabase database) : IAlertStore
         return snoozes.ToDictionary(s => s.Pair, s => s.Until, StringComparer.Ordinal);
     }
 
-    public async Task<IReadOnlyList<AlertState>> ApplyCycleAsync(CycleDecision decision, IReadOnlyList<OutboxMessage> outbox, FeedPosition? position, CancellationToken cancellationToken)
+    public Task<IReadOnlyList<AlertState>> ApplyCycleAsync(CycleDecision decision, IReadOnlyList<OutboxMessage> outbox, FeedPosition? position, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(outbox);
+        return ApplyCycleAsync(decision, _ => outbox, position, cancellationToken);
+    }
+
+    public async Task<IReadOnlyList<AlertState>> ApplyCycleAsync(
+        CycleDecision decision, Func<IReadOnlyList<AlertState>, IReadOnlyList<OutboxMessage>> composeOutbox, FeedPosition? position, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(decision);
-        ArgumentNullException.ThrowIfNull(outbox);
+        ArgumentNullException.ThrowIfNull(composeOutbox);
         await using var connection = await database.OpenAsync(cancellationToken);
         await using var transaction = await connection.BeginTransactionAsync(cancellationToken);
         var saved = new List<AlertState>(decision.Changes.Count);
@@ -45,7 +52,7 @@ internal sealed class AlertStore(IStoreDatabase database) : IAlertStore
                 : await UpdateAsync(connection, transaction, state, cancellationToken));
         }
 
-        foreach (var message in outbox)
+        foreach (var message in composeOutbox(saved))
         {
             await OutboxStore.InsertAsync(connection, transaction, message, cancellationToken);
         }

@@ -25,6 +25,14 @@ internal interface IAlertStore
     /// </summary>
     Task<IReadOnlyList<AlertState>> ApplyCycleAsync(CycleDecision decision, IReadOnlyList<OutboxMessage> outbox, FeedPosition? position, CancellationToken cancellationToken);
 
+    /// <summary>
+    /// As above, with the outbox composed inside the transaction from the saved states, so a new alert's messages
+    /// can name the id the store has just given it. <paramref name="composeOutbox"/> gets
+    /// <see cref="CycleDecision.Changes"/> as saved (same order, new ones with their ids).
+    /// </summary>
+    Task<IReadOnlyList<AlertState>> ApplyCycleAsync(
+        CycleDecision decision, Func<IReadOnlyList<AlertState>, IReadOnlyList<OutboxMessage>> composeOutbox, FeedPosition? position, CancellationToken cancellationToken);
+
     /// <summary>Open alerts and those cleared at or after <paramref name="clearedSince"/>, newest first.</summary>
     Task<IReadOnlyList<AlertState>> ListAlertsAsync(DateTimeOffset clearedSince, int limit, CancellationToken cancellationToken, string? pair = null);
 

@@ -115,8 +115,8 @@ internal static class DigestHtml
             html.Append(" <span style=\"color:#6B7280;\">(confirmed since ").Append(H(Output.Figures.Time(confirmed))).Append(")</span>");
         }
 
-        // The id 'driftwatch alerts ack' and the dashboard's audit log name the alert by; a new alert has none yet
-        // when its digest is composed (it is stored in the same transaction), so only known ids are shown.
+        // The id 'driftwatch alerts ack' and the dashboard's audit log name the alert by (digests are composed after
+        // the alert rows are written, in the same transaction; only a digest composed outside the store has none).
         if (alert.Id > 0)
         {
             html.Append(" <span style=\"color:#6B7280;\">(alert #").Append(alert.Id.ToString(System.Globalization.CultureInfo.InvariantCulture)).Append(")</span>");

@@ -40,20 +40,11 @@ internal sealed class AlertCycleProcessor(
         var snoozes = await store.GetActiveSnoozesAsync(now, cancellationToken);
         var decision = AlertLifecycle.Evaluate(filtered, open, snoozes, config, now);
 
-        var items = decision.Notifications
-            .Select(n => new DigestItem(n, contexts.TryGetValue(n.Alert.Pair, out var context) ? context : AlertPairContext.Unknown(n.Alert.Pair)))
-            .ToArray();
+        // Composed inside the store's transaction, after the states are written: a new alert's mail names the id
+        // that 'alerts ack' and the dashboard use. Message-Ids do not depend on it (MessageIds), so a retried cycle
+        // still finds its messages already stored.
         var outbox = new List<OutboxMessage>();
-        var options = new DigestOptions(config.Smtp?.From ?? DigestOptions.DefaultFrom, config.PublicUrl);
-        foreach (var digest in AlertAddressing.Address(items, config.MailingLists))
-        {
-            if (Compose(digest, options, now) is { } message)
-            {
-                outbox.Add(message);
-            }
-        }
-
-        var saved = await store.ApplyCycleAsync(decision, outbox, position, cancellationToken);
+        var saved = await store.ApplyCycleAsync(decision, stored => ComposeAll(decision, stored, contexts, now, outbox), position, cancellationToken);
         if (outbox.Count > 0)
         {
             signal.Notify();
@@ -65,6 +56,28 @@ internal sealed class AlertCycleProcessor(
         }
 
         return new AlertCycleResult(decision, saved, outbox);
+    }
+
+    private List<OutboxMessage> ComposeAll(
+        CycleDecision decision, IReadOnlyList<AlertState> stored, IReadOnlyDictionary<string, AlertPairContext> contexts, DateTimeOffset now, List<OutboxMessage> outbox)
+    {
+        // A notification of a new alert carries the unsaved state (id 0); the saved one has its id.
+        var ids = stored.Where(s => s.Id > 0).GroupBy(s => (s.Pair, s.Kind)).ToDictionary(g => g.Key, g => g.Last());
+        var items = decision.Notifications
+            .Select(n => n.Alert.Id == 0 && ids.TryGetValue((n.Alert.Pair, n.Alert.Kind), out var saved) ? n with { Alert = n.Alert with { Id = saved.Id } } : n)
+            .Select(n => new DigestItem(n, contexts.TryGetValue(n.Alert.Pair, out var context) ? context : AlertPairContext.Unknown(n.Alert.Pair)))
+            .ToArray();
+        outbox.Clear();
+        var options = new DigestOptions(config.Smtp?.From ?? DigestOptions.DefaultFrom, config.PublicUrl);
+        foreach (var digest in AlertAddressing.Address(items, config.MailingLists))
+        {
+            if (Compose(digest, options, now) is { } message)
+            {
+                outbox.Add(message);
+            }
+        }
+
+        return outbox;
     }
 
     private OutboxMessage? Compose(AddressedDigest digest, DigestOptions options, DateTimeOffset now)
