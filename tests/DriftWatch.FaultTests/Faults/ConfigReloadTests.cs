@@ -20,7 +20,7 @@ public sealed partial class ConfigReloadTests(PostgresServer server)
         bench.WriteConfig(setup);
         var firstHash = FileHash(bench.ConfigPath);
         using var worker = await bench.StartWorkerAsync();
-        await Eventually.TrueAsync("a succeeded run", async _ => (await bench.RunsAsync(OldPair)).Any(r => r.Status == "succeeded"), worker.Transcript);
+        await Eventually.TrueAsync("a succeeded run", async _ => (await bench.RunsAsync(OldPair)).Any(r => r.Status == "succeeded"), worker.OutputLog);
         var loaded = (await bench.HealthReportAsync())!.Value.GetProperty("configuration");
         // The hash /healthz shows is SHA-256 of the file's bytes, as sha256sum computes it (System.Security.Cryptography).
         Assert.Equal(firstHash, loaded.GetProperty("sha256").GetString());
@@ -39,7 +39,7 @@ public sealed partial class ConfigReloadTests(PostgresServer server)
             }
 
             return false;
-        }, worker.Transcript);
+        }, worker.OutputLog);
         // file:line:column: key: message, pointing at the bad schedule's line of the file as written.
         var badLine = Array.FindIndex(File.ReadAllLines(bench.ConfigPath), l => l.Contains("every now and then", StringComparison.Ordinal)) + 1;
         var schedule = Assert.Single(errors, e => e.Contains("schedule", StringComparison.Ordinal));
@@ -54,7 +54,7 @@ public sealed partial class ConfigReloadTests(PostgresServer server)
         // The old pair goes on being checked under the configuration in force; the new one is not.
         var lastBefore = (await bench.RunsAsync(OldPair))[^1].Id;
         await Eventually.TrueAsync("a run of the old pair after the refused reload", async _ =>
-            (await bench.RunsAsync(OldPair)).Any(r => r.Id > lastBefore && r.Status == "succeeded"), worker.Transcript);
+            (await bench.RunsAsync(OldPair)).Any(r => r.Id > lastBefore && r.Status == "succeeded"), worker.OutputLog);
         Assert.Empty(await bench.RunsAsync(NewPair));
 
         // The same edit, well written: applied at once.
@@ -65,9 +65,9 @@ public sealed partial class ConfigReloadTests(PostgresServer server)
             await bench.HealthReportAsync(ct) is { } report
             && report.GetProperty("configuration") is var configuration
             && configuration.GetProperty("sha256").GetString() == secondHash
-            && configuration.GetProperty("last_reload_error").ValueKind == System.Text.Json.JsonValueKind.Null, worker.Transcript);
+            && configuration.GetProperty("last_reload_error").ValueKind == System.Text.Json.JsonValueKind.Null, worker.OutputLog);
         await Eventually.TrueAsync("a succeeded run of the added pair", async _ =>
-            (await bench.RunsAsync(NewPair)).Any(r => r.Status == "succeeded"), worker.Transcript);
+            (await bench.RunsAsync(NewPair)).Any(r => r.Status == "succeeded"), worker.OutputLog);
         Assert.Contains(worker.Output, l => l.Contains("Reload: pair", StringComparison.Ordinal) && l.Contains(NewPair, StringComparison.Ordinal) && l.Contains("added", StringComparison.Ordinal));
         Assert.True(await bench.HealthyAsync());
         // The reloads broke nothing for the old pair: every run of it so far succeeded.

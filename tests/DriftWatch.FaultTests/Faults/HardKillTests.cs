@@ -20,7 +20,7 @@ public sealed class HardKillTests(PostgresServer server)
         });
         var first = await bench.StartWorkerAsync();
         await Eventually.TrueAsync("the check-failing mail sent and a slow check in flight", async _ =>
-            (await bench.OutboxAsync()) is [_, ..] outbox && outbox.All(m => m.Sent) && await bench.SleepingQueriesAsync() > 0, first.Transcript);
+            (await bench.OutboxAsync()) is [_, ..] outbox && outbox.All(m => m.Sent) && await bench.SleepingQueriesAsync() > 0, first.OutputLog);
         var runsBefore = await bench.RunsAsync("broken");
 
         await first.KillHardAsync();
@@ -29,9 +29,9 @@ public sealed class HardKillTests(PostgresServer server)
         await bench.SetPauseAsync(0);
 
         using var second = await bench.StartWorkerAsync();
-        await Eventually.TrueAsync("a run of slow recorded by the restarted worker", async _ => (await bench.RunsAsync("slow")).Any(r => r.Status == "succeeded"), second.Transcript);
+        await Eventually.TrueAsync("a run of slow recorded by the restarted worker", async _ => (await bench.RunsAsync("slow")).Any(r => r.Status == "succeeded"), second.OutputLog);
         var lastBefore = runsBefore[^1].Id;
-        await Eventually.TrueAsync("new runs of broken after the restart", async _ => (await bench.RunsAsync("broken")).Any(r => r.Id > lastBefore), second.Transcript);
+        await Eventually.TrueAsync("new runs of broken after the restart", async _ => (await bench.RunsAsync("broken")).Any(r => r.Id > lastBefore), second.OutputLog);
         Assert.True(await bench.HealthyAsync());
 
         await second.TerminateAsync();

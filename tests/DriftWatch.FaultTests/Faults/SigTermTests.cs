@@ -15,11 +15,11 @@ public sealed class SigTermTests(PostgresServer server)
         await bench.SetPauseAsync(600);
         bench.WriteConfig(new WorkerSetup { Pairs = [new PairSpec("slow", FaultBench.SlowView)], StopGrace = "1s" });
         using var worker = await bench.StartWorkerAsync();
-        await Eventually.TrueAsync("the check's query running on the source server", async _ => await bench.SleepingQueriesAsync() > 0, worker.Transcript);
+        await Eventually.TrueAsync("the check's query running on the source server", async _ => await bench.SleepingQueriesAsync() > 0, worker.OutputLog);
 
         await worker.TerminateAsync();
 
-        Assert.True(await worker.WaitForExitAsync(Eventually.Deadline) == 0, worker.Transcript());
+        Assert.True(await worker.WaitForExitAsync(Eventually.Deadline) == 0, worker.OutputLog());
         var run = Assert.Single(await bench.RunsAsync("slow"));
         Assert.Equal("failed", run.Status);
         Assert.Equal("check cancelled before it finished (shutdown)", run.Error);

@@ -17,7 +17,7 @@ public sealed class SmtpOutageTests(PostgresServer server)
         await bench.Smtp.StopAsync();
         await bench.StopSourceAsync();
         await Eventually.TrueAsync("an alert message whose first attempt failed", async _ =>
-            (await bench.OutboxAsync()).Any(m => !m.Sent && m.Attempts >= 1), worker.Transcript);
+            (await bench.OutboxAsync()).Any(m => !m.Sent && m.Attempts >= 1), worker.OutputLog);
         var waiting = (await bench.OutboxAsync()).First(m => !m.Sent);
         Assert.Contains("unavailable", waiting.LastError, StringComparison.Ordinal);
         // One line per failed attempt, naming the message; no stack trace at the default level.
@@ -29,9 +29,9 @@ public sealed class SmtpOutageTests(PostgresServer server)
         await bench.Smtp.StartAgainAsync();
         await bench.StartSourceAsync();
         // The waiting message goes out on its retry; the cleared notice after it.
-        await Eventually.TrueAsync("the waiting message delivered", _ => Task.FromResult(bench.Smtp.ReceivedIds.Contains(waiting.MessageId)), worker.Transcript);
-        await Eventually.TrueAsync("the check-failing alert cleared", async _ => (await bench.CheckFailingAlertsAsync("km-vs-litres")) is [.., { Status: "cleared" }], worker.Transcript);
-        await bench.WaitAllSentAsync(2, worker.Transcript);
+        await Eventually.TrueAsync("the waiting message delivered", _ => Task.FromResult(bench.Smtp.ReceivedIds.Contains(waiting.MessageId)), worker.OutputLog);
+        await Eventually.TrueAsync("the check-failing alert cleared", async _ => (await bench.CheckFailingAlertsAsync("km-vs-litres")) is [.., { Status: "cleared" }], worker.OutputLog);
+        await bench.WaitAllSentAsync(2, worker.OutputLog);
         Assert.True(await bench.HealthyAsync());
 
         await worker.TerminateAsync();

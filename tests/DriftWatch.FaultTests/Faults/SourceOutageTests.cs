@@ -13,11 +13,11 @@ public sealed class SourceOutageTests(PostgresServer server)
         await using var bench = await FaultBench.CreateAsync(server);
         bench.WriteConfig(new WorkerSetup { Pairs = [new PairSpec("km-vs-litres", FaultBench.SourceTable)], CheckFailingAfter = 2 });
         using var worker = await bench.StartWorkerAsync();
-        await Eventually.TrueAsync("a succeeded run", async _ => (await bench.RunsAsync("km-vs-litres")).Any(r => r.Status == "succeeded"), worker.Transcript);
+        await Eventually.TrueAsync("a succeeded run", async _ => (await bench.RunsAsync("km-vs-litres")).Any(r => r.Status == "succeeded"), worker.OutputLog);
 
         await bench.StopSourceAsync();
         await Eventually.TrueAsync("a confirmed check-failing alert and its mail", async _ =>
-            (await bench.CheckFailingAlertsAsync("km-vs-litres")).Any(a => a.Confirmed) && bench.Smtp.ReceivedIds.Count >= 1, worker.Transcript);
+            (await bench.CheckFailingAlertsAsync("km-vs-litres")).Any(a => a.Confirmed) && bench.Smtp.ReceivedIds.Count >= 1, worker.OutputLog);
         var failedWhileDown = (await bench.RunsAsync("km-vs-litres")).Where(r => r.Status == "failed").ToList();
         Assert.True(failedWhileDown.Count >= 2, "check_failing_after: 2 needs two failed runs in a row");
         // The reason is recorded with each run: a session cut off by the stop (SQLSTATE 57P01) or, after it, the
@@ -30,9 +30,9 @@ public sealed class SourceOutageTests(PostgresServer server)
         var lastFailed = failedWhileDown[^1].Id;
         await Eventually.TrueAsync("a succeeded run after the source came back and the alert cleared", async _ =>
             (await bench.RunsAsync("km-vs-litres")).Any(r => r.Id > lastFailed && r.Status == "succeeded")
-            && (await bench.CheckFailingAlertsAsync("km-vs-litres")) is [.., { Status: "cleared" }], worker.Transcript);
+            && (await bench.CheckFailingAlertsAsync("km-vs-litres")) is [.., { Status: "cleared" }], worker.OutputLog);
         // The cleared notice is a message of its own, sent once.
-        await bench.WaitAllSentAsync(2, worker.Transcript);
+        await bench.WaitAllSentAsync(2, worker.OutputLog);
         Assert.True(await bench.HealthyAsync());
 
         await worker.TerminateAsync();

@@ -23,10 +23,10 @@ public sealed class StoreOutageTests(PostgresServer server)
             ExtraYaml = "defaults:\n  baseline: {first_runs: 1}\n",
         });
         using var worker = await bench.StartWorkerAsync();
-        await Eventually.TrueAsync("a succeeded run", async _ => (await bench.RunsAsync(Pair)).Any(r => r.Status == "succeeded"), worker.Transcript);
+        await Eventually.TrueAsync("a succeeded run", async _ => (await bench.RunsAsync(Pair)).Any(r => r.Status == "succeeded"), worker.OutputLog);
         // A unit change (litres to a unit 2.2 times smaller), the kind of shift the checks are for.
         await bench.Source.ExecuteAsync($"UPDATE {FaultBench.SourceTable} SET litres = litres * 2.2");
-        await Eventually.TrueAsync("a run with findings", async _ => (await bench.StoredRunsAsync(Pair)).Any(r => r.Findings > 0), worker.Transcript);
+        await Eventually.TrueAsync("a run with findings", async _ => (await bench.StoredRunsAsync(Pair)).Any(r => r.Findings > 0), worker.OutputLog);
         var before = await bench.StoredRunsAsync(Pair);
 
         await bench.StopDatabaseAsync(bench.Store);
@@ -46,7 +46,7 @@ public sealed class StoreOutageTests(PostgresServer server)
             }
 
             return spooled.Count >= SpooledAtLeast && deepest >= SpooledAtLeast;
-        }, worker.Transcript);
+        }, worker.OutputLog);
         var whileDown = await bench.HealthReportAsync();
         Assert.NotNull(whileDown);
         // The worker answers, and says what is wrong: the store, not itself.
@@ -59,12 +59,12 @@ public sealed class StoreOutageTests(PostgresServer server)
         await Eventually.TrueAsync("the spool emptied into the store and /healthz ok", async ct =>
             await bench.HealthReportAsync(ct) is { } report
             && report.GetProperty("status").GetString() == "ok"
-            && report.GetProperty("spool").GetProperty("runs").GetInt32() == 0, worker.Transcript);
+            && report.GetProperty("spool").GetProperty("runs").GetInt32() == 0, worker.OutputLog);
         // The failed runs of the outage count toward check_failing once written: confirmed, then cleared by the
         // next succeeded run, one mail each.
         await Eventually.TrueAsync("the check-failing alert of the outage cleared", async _ =>
-            (await bench.CheckFailingAlertsAsync(Pair)) is [.., { Status: "cleared" }], worker.Transcript);
-        await bench.WaitAllSentAsync(2, worker.Transcript);
+            (await bench.CheckFailingAlertsAsync(Pair)) is [.., { Status: "cleared" }], worker.OutputLog);
+        await bench.WaitAllSentAsync(2, worker.OutputLog);
         Assert.True(await bench.HealthyAsync(), "/healthz after the store came back");
 
         await worker.TerminateAsync();
@@ -74,7 +74,7 @@ public sealed class StoreOutageTests(PostgresServer server)
         Assert.True(alert.Confirmed, "the outage's failed runs confirmed the check-failing alert");
 
         var after = await bench.StoredRunsAsync(Pair);
-        var context = string.Join('\n', after) + "\n" + worker.Transcript();
+        var context = string.Join('\n', after) + "\n" + worker.OutputLog();
         // Exactly once: the unique index on run_key would refuse a second copy, so this checks the keys were kept.
         Assert.All(after, r => Assert.NotNull(r.RunKey));
         Assert.Equal(after.Count, after.Select(r => r.RunKey).Distinct(StringComparer.Ordinal).Count());

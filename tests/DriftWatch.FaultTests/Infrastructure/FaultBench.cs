@@ -77,7 +77,7 @@ public sealed partial class FaultBench : IAsyncDisposable
     public async Task<WorkerProcess> StartWorkerAsync()
     {
         var worker = StartProcess();
-        await Eventually.TrueAsync("/healthz to answer 200", async ct => worker.HasExited ? throw new InvalidOperationException("the worker exited at start\n" + worker.Transcript()) : await HealthyAsync(ct), worker.Transcript);
+        await Eventually.TrueAsync("/healthz to answer 200", async ct => worker.HasExited ? throw new InvalidOperationException("the worker exited at start\n" + worker.OutputLog()) : await HealthyAsync(ct), worker.OutputLog);
         return worker;
     }
 

@@ -75,13 +75,13 @@ public sealed class WorkerProcess : IDisposable
         }
         catch (OperationCanceledException)
         {
-            throw new TimeoutException($"The worker did not exit within {deadline.TotalSeconds:0} s.\n{Transcript()}");
+            throw new TimeoutException($"The worker did not exit within {deadline.TotalSeconds:0} s.\n{OutputLog()}");
         }
 
         return _process.ExitCode;
     }
 
-    public string Transcript() => "--- worker output ---\n" + string.Join('\n', _output);
+    public string OutputLog() => "--- worker output ---\n" + string.Join('\n', _output);
 
     /// <summary>Kills the process if it still runs. Safe to call twice (the test and the bench both dispose it).</summary>
     public void Dispose()
