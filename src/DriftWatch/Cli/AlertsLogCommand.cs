@@ -1,6 +1,7 @@
 using System.CommandLine;
 using System.Globalization;
 using System.Text.Json.Serialization;
+using DriftWatch.Core.Triage;
 using DriftWatch.Hosting;
 using DriftWatch.Output;
 using DriftWatch.Store;

@@ -1,6 +1,5 @@
-using System.Text.Json;
 using Dapper;
-using DriftWatch.Triage;
+using DriftWatch.Core.Triage;
 
 namespace DriftWatch.Store;
 
@@ -52,7 +51,7 @@ internal sealed class AuditStore(IStoreDatabase database) : IAuditStore
     }
 
     /// <summary>The stored (and printed) form: snake_case, as the migration's CHECK lists it.</summary>
-    public static string Name(AuditAction action) => JsonNamingPolicy.SnakeCaseLower.ConvertName(action.ToString());
+    public static string Name(AuditAction action) => StoreJson.EnumText(action);
 
     private static AuditAction ParseAction(string text)
     {

@@ -1,4 +1,4 @@
-using DriftWatch.Triage;
+using DriftWatch.Core.Triage;
 
 namespace DriftWatch.Store;
 

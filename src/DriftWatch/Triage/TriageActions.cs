@@ -3,6 +3,7 @@ using DriftWatch.Core.Alerting;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Findings;
 using DriftWatch.Core.History;
+using DriftWatch.Core.Triage;
 using DriftWatch.Monitoring;
 using DriftWatch.Store;
 

@@ -1,5 +1,6 @@
 using System.Text.RegularExpressions;
 using DriftWatch.Core.Configuration;
+using DriftWatch.Core.Triage;
 using DriftWatch.Dashboard;
 using DriftWatch.Store;
 using DriftWatch.Tests.Dashboard;

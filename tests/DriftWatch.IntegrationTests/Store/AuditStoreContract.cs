@@ -1,4 +1,5 @@
 using Dapper;
+using DriftWatch.Core.Triage;
 using DriftWatch.IntegrationTests.Infrastructure;
 using DriftWatch.Store;
 using DriftWatch.Triage;

@@ -18,6 +18,7 @@ public sealed class LayeringTests
     [InlineData("DriftWatch.Store", "DriftWatch.Monitoring")]
     [InlineData("DriftWatch.Store", "DriftWatch.Dashboard")]
     [InlineData("DriftWatch.Store", "DriftWatch.Cli")]
+    [InlineData("DriftWatch.Store", "DriftWatch.Triage")]
     [InlineData("DriftWatch.Demo", "DriftWatch.Cli")]
     [InlineData("DriftWatch.Alerting", "DriftWatch.Cli")]
     [InlineData("DriftWatch.Alerting", "DriftWatch.Dashboard")]

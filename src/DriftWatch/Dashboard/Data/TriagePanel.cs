@@ -1,4 +1,5 @@
 using DriftWatch.Core.Alerting;
+using DriftWatch.Core.Triage;
 using DriftWatch.Triage;
 
 namespace DriftWatch.Dashboard.Data;

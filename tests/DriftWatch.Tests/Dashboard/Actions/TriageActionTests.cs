@@ -1,6 +1,7 @@
 using System.Net;
 using System.Text.RegularExpressions;
 using DriftWatch.Core.Configuration;
+using DriftWatch.Core.Triage;
 using DriftWatch.Dashboard.Access;
 using DriftWatch.Store;
 using DriftWatch.Triage;

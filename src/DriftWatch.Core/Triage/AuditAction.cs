@@ -1,7 +1,7 @@
-namespace DriftWatch.Triage;
+namespace DriftWatch.Core.Triage;
 
 /// <summary>What a person did; stored in snake_case (<c>baseline_accept</c>).</summary>
-internal enum AuditAction
+public enum AuditAction
 {
     Ack,
     Snooze,

@@ -1,11 +1,11 @@
-namespace DriftWatch.Triage;
+namespace DriftWatch.Core.Triage;
 
 /// <summary>
-/// One recorded decision: who (<see cref="Actor"/>, <see cref="Via"/>), when, what, on which pair, alert or run,
+/// One recorded decision: who (Actor, Via: a name and "dashboard" or "cli"), when, what, on which pair, alert or run,
 /// why (<see cref="Reason"/>, as typed) and what came of it (<see cref="Detail"/>, e.g. "until 2026-12-03 08:00 UTC").
 /// <see cref="Id"/> is 0 until stored.
 /// </summary>
-internal sealed record AuditEntry(
+public sealed record AuditEntry(
     long Id,
     DateTimeOffset At,
     string Actor,
