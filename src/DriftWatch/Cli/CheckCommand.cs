@@ -19,15 +19,18 @@ internal static class CheckCommand
         ArgumentNullException.ThrowIfNull(console);
         var config = ConfigOption.Create();
         var pair = new Option<string?>("--pair", "-p") { Description = "Check only this pair (by its name in the configuration).", HelpName = "NAME" };
-        var format = CommonOptions.Format();
+        var format = CheckOptions.Format();
+        var (tags, failAt, output) = (CheckOptions.Tags(), CheckOptions.FailAt(), CheckOptions.Output());
         var verbose = VerboseOption.Create();
         var command = new Command(
             "check",
             "Check every watched pair (or one) now, record the runs, evaluate alerts and send what is due. " +
-            "Exit code 0: healthy; 1: a finding at warning or worse; 2: configuration error; 3: a check failed to run or had nothing to measure.\n\n" +
-            "Example (a pipeline step after the nightly load): driftwatch check --config /etc/driftwatch/driftwatch.yaml --format json")
+            "Exit code 0: healthy; 1: a finding at warning or worse (--fail-at); 2: configuration error; 3: a check failed to run or had nothing to measure.\n\n" +
+            "Example (a pipeline step after the nightly load): driftwatch check --config /etc/driftwatch/driftwatch.yaml --format json\n" +
+            "Example (a CI job's test report, one team's pairs): driftwatch check --tag billing --format junit --output reports/driftwatch.xml")
         {
             config, pair, format, verbose,
+            tags, failAt, output,
         };
         command.SetAction(async (parse, ct) =>
         {
@@ -37,7 +40,12 @@ internal static class CheckCommand
                 return ExitCodes.UsageError;
             }
 
-            var pairs = PairSelection.Select(loaded, parse.GetValue(pair));
+            var pairs = PairSelection.Select(loaded, parse.GetValue(pair), parse.GetValue(tags) ?? []);
+            if (parse.GetValue(output) is { } file)
+            {
+                ReportFile.CheckWritable(file);
+            }
+
             if (pairs.Count == 0)
             {
                 console.WriteWarning($"{loaded.FilePath} watches no pairs; nothing to check.");
@@ -56,22 +64,14 @@ internal static class CheckCommand
             console.Error.WriteLine($"Checking {pairs.Count} pair{(pairs.Count == 1 ? "" : "s")}…");
             var pass = await services.GetRequiredService<CheckPass>().RunAsync(pairs, progress, ct);
             var results = pass.Checks;
-            var exit = ExitCodeOf(results);
+            var exit = ExitCodeOf(results, parse.GetValue(failAt));
             if (pass.Notifications > 0 || pass.Delivery.Sent + pass.Delivery.Failed > 0)
             {
                 console.Error.WriteLine(
                     $"Alerts: {pass.Notifications} notification(s), {pass.MessagesQueued} message(s) queued, {pass.Delivery.Sent} sent" +
                     (pass.Delivery.Failed > 0 ? $", {pass.Delivery.Failed} failed (kept in the outbox; retried later)" : ""));
             }
-            if (parse.GetValue(format) == OutputFormat.Json)
-            {
-                console.Out.WriteLine(JsonContract.Serialize(CheckOutput.ToJson(results, exit)));
-            }
-            else
-            {
-                CheckOutput.RenderTable(console.Ansi, results);
-            }
-
+            CheckReport.Write(console, loaded, results, exit, parse.GetValue(format), parse.GetValue(failAt), parse.GetValue(output));
             return exit;
         });
         return command;
@@ -81,13 +81,13 @@ internal static class CheckCommand
     /// A check that could not run, or ran and had nothing to measure, outranks findings: the pair's state is unknown.
     /// An empty window must never pass a pipeline step as healthy.
     /// </summary>
-    internal static int ExitCodeOf(IReadOnlyList<PairCheckResult> results)
+    internal static int ExitCodeOf(IReadOnlyList<PairCheckResult> results, Severity failAt = CheckOptions.DefaultFailAt)
     {
         if (results.Any(r => r.Status is RunStatus.Failed or RunStatus.Unmeasurable or RunStatus.Interrupted))
         {
             return ExitCodes.RunFailures;
         }
 
-        return results.Any(r => r.Findings.Any(f => f.Severity >= Severity.Warning)) ? ExitCodes.Findings : ExitCodes.Healthy;
+        return results.Any(r => r.Findings.Any(f => f.Severity >= failAt)) ? ExitCodes.Findings : ExitCodes.Healthy;
     }
 }
