@@ -31,6 +31,7 @@ internal static class CheckJunit
         {
             xml.WriteStartDocument();
             xml.WriteStartElement("testsuites");
+            xml.WriteAttributeString("name", SuiteName);
             Counts(xml, tally);
             xml.WriteStartElement("testsuite");
             xml.WriteAttributeString("name", SuiteName);
