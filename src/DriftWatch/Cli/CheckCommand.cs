@@ -24,7 +24,7 @@ internal static class CheckCommand
         var verbose = VerboseOption.Create();
         var command = new Command(
             "check",
-            "Check every watched pair (or one) now, record the runs, evaluate alerts and send what is due. " +
+            "Check every watched pair (or those named by --pair and --tag) now, record the runs, evaluate alerts and send what is due. " +
             "Exit code 0: healthy; 1: a finding at warning or worse (--fail-at); 2: configuration error; 3: a check failed to run or had nothing to measure.\n\n" +
             "Example (a pipeline step after the nightly load): driftwatch check --config /etc/driftwatch/driftwatch.yaml --format json\n" +
             "Example (a CI job's test report, one team's pairs): driftwatch check --tag billing --format junit --output reports/driftwatch.xml")
@@ -64,14 +64,15 @@ internal static class CheckCommand
             console.Error.WriteLine($"Checking {pairs.Count} pair{(pairs.Count == 1 ? "" : "s")}…");
             var pass = await services.GetRequiredService<CheckPass>().RunAsync(pairs, progress, ct);
             var results = pass.Checks;
-            var exit = ExitCodeOf(results, parse.GetValue(failAt));
+            var failing = parse.GetValue(failAt) ?? CheckOptions.DefaultFailAt;
+            var exit = ExitCodeOf(results, failing);
             if (pass.Notifications > 0 || pass.Delivery.Sent + pass.Delivery.Failed > 0)
             {
                 console.Error.WriteLine(
                     $"Alerts: {pass.Notifications} notification(s), {pass.MessagesQueued} message(s) queued, {pass.Delivery.Sent} sent" +
                     (pass.Delivery.Failed > 0 ? $", {pass.Delivery.Failed} failed (kept in the outbox; retried later)" : ""));
             }
-            CheckReport.Write(console, loaded, results, exit, parse.GetValue(format), parse.GetValue(failAt), parse.GetValue(output));
+            CheckReport.Write(console, loaded, results, exit, parse.GetValue(format), failing, parse.GetValue(output));
             return exit;
         });
         return command;

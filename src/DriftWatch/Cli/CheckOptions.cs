@@ -43,13 +43,13 @@ internal static class CheckOptions
         AllowMultipleArgumentsPerToken = false,
     };
 
-    public static Option<Severity> FailAt() => new("--fail-at")
+    /// <summary>Absent means <see cref="DefaultFailAt"/>; nullable so help shows no enum member's name as the default.</summary>
+    public static Option<Severity?> FailAt() => new("--fail-at")
     {
         Description = "The least severe finding that fails the step (exit code 1, a <failure> in JUnit): 'warning' " +
             "(the default) or 'critical'. Lower findings are still reported.",
         HelpName = "warning|critical",
-        DefaultValueFactory = _ => DefaultFailAt,
-        CustomParser = result => ParseWord(result, "--fail-at", [("warning", Severity.Warning), ("critical", Severity.Critical)], DefaultFailAt),
+        CustomParser = result => ParseWord<Severity?>(result, "--fail-at", [("warning", Severity.Warning), ("critical", Severity.Critical)], null),
     };
 
     public static Option<FileInfo?> Output() => new("--output", "-o")

@@ -276,6 +276,7 @@ public sealed class CheckCiReportTests : IDisposable
         Assert.Equal(0, run.ExitCode);
         Assert.Contains("table|json|junit|markdown", run.Out, StringComparison.Ordinal);
         Assert.Contains("--fail-at <warning|critical>", run.Out, StringComparison.Ordinal);
+        Assert.DoesNotContain("[default: Warning]", run.Out, StringComparison.Ordinal);
         Assert.Contains("--tag", run.Out, StringComparison.Ordinal);
         Assert.Contains("--output <FILE>", run.Out, StringComparison.Ordinal);
         Assert.Contains("driftwatch check --tag billing --format junit --output reports/driftwatch.xml", run.Out, StringComparison.Ordinal);
