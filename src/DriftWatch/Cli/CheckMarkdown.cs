@@ -125,7 +125,7 @@ internal static class CheckMarkdown
     /// <summary>
     /// Inline text shown as written. CommonMark 0.29, 2.4 (backslash escapes): any ASCII punctuation may be escaped;
     /// these are the characters that start a code span, emphasis, a link, raw HTML or an entity, or end a table cell.
-    /// A line break inside a list item would end the item: it becomes a space.
+    /// A line break inside a list item would end the item: it becomes a space; other control characters become U+FFFD.
     /// </summary>
     public static string Text(string text)
     {
@@ -140,6 +140,14 @@ internal static class CheckMarkdown
         var md = new StringBuilder(text.Length + 8);
         foreach (var c in text)
         {
+            // Control characters (a database's error can carry one) have no meaning to a reader: shown as U+FFFD,
+            // as CommonMark does for U+0000 (2.3, insecure characters).
+            if (char.IsControl(c) && c is not ('\t' or '\n' or '\r'))
+            {
+                md.Append('\uFFFD');
+                continue;
+            }
+
             if (c is '\\' or '`' or '*' or '_' or '[' or ']' or '<' or '>' or '|' or '~' or '&' or '!')
             {
                 md.Append('\\');

@@ -48,6 +48,14 @@ public sealed class CheckMarkdownEscapingTests
         Assert.Equal("next", MarkdownHtml.Text(rows[1].Elements("td").Single()));
     }
 
+    [Fact]
+    public void Cell_ControlCharacters_ShowAsReplacementCharacters()
+    {
+        var html = MarkdownHtml.Render($"| a |\n|---|\n| {CheckMarkdown.Cell("bell\u0007 nul\u0000 tab\tend")} |\n");
+
+        Assert.Equal("bell\uFFFD nul\uFFFD tab\tend", MarkdownHtml.Text(html.Descendants("td").Single()));
+    }
+
     [Theory]
     [MemberData(nameof(Hostile))]
     public void Text_HostileText_RendersAsWrittenInAListItem(string text)
