@@ -82,6 +82,9 @@ public sealed record MailingListConfig
 
     /// <summary>For the webhook channel: how long one post may take, connection included, before it counts as the receiver being down.</summary>
     public TimeSpan Timeout { get; init; } = DefaultWebhookTimeout;
+
+    /// <summary>Name and channel only: the URL may hold a token and the secret is one.</summary>
+    public override string ToString() => $"{Name} ({Channel})";
 }
 
 public enum SmtpSecurity
