@@ -44,7 +44,7 @@ public sealed class WebhookDeliveryTests : IDisposable
     {
         using var hmac = new HMACSHA256(Encoding.UTF8.GetBytes(Secret));
         var signed = Encoding.ASCII.GetBytes(post.Timestamp + ".").Concat(post.Body).ToArray();
-        var expected = BitConverter.ToString(hmac.ComputeHash(signed)).Replace("-", "", StringComparison.Ordinal).ToLowerInvariant();
+        var expected = string.Concat(hmac.ComputeHash(signed).Select(b => b.ToString("x2", CultureInfo.InvariantCulture)));
         return CryptographicOperations.FixedTimeEquals(Encoding.ASCII.GetBytes(expected), Encoding.ASCII.GetBytes(post.Signature ?? ""));
     }
 
