@@ -1,4 +1,5 @@
 using System.Net;
+using System.Net.Sockets;
 
 namespace DriftWatch.IntegrationTests.Alerting;
 
@@ -8,7 +9,7 @@ internal sealed record ReceivedPost(string? Timestamp, string? Signature, string
 /// <summary>
 /// A real HTTP receiver on 127.0.0.1 (the framework's HttpListener, no mock): records every request before it answers,
 /// so when the dispatcher has its answer the post is already recorded. Answers 200 unless told otherwise with
-/// <see cref="AnswerNext"/>, one scripted status per request.
+/// <see cref="AnswerNext"/>, one scripted status per request. Also compiled into the fault tests (linked source).
 /// </summary>
 internal sealed class LoopbackWebhook : IDisposable
 {
@@ -40,7 +41,17 @@ internal sealed class LoopbackWebhook : IDisposable
         }
     }
 
-    public static LoopbackWebhook Start(int? port = null) => new(port ?? LoopbackSmtp.FreePort());
+    public static LoopbackWebhook Start(int? port = null) => new(port ?? FreePort());
+
+    /// <summary>A port nothing listens on right now: a receiver that is down refuses connections there.</summary>
+    public static int FreePort()
+    {
+        using var listener = new TcpListener(IPAddress.Loopback, 0);
+        listener.Start();
+        var port = ((IPEndPoint)listener.LocalEndpoint).Port;
+        listener.Stop();
+        return port;
+    }
 
     /// <summary>The next requests get these statuses, in order (then 200 again).</summary>
     public void AnswerNext(int status, string body = "", int times = 1)
