@@ -2,7 +2,11 @@ using DriftWatch.Core.Configuration;
 
 namespace DriftWatch.Core.Alerting;
 
-/// <summary>A stored outbox row. <paramref name="Mime"/> is null in listings that do not load it.</summary>
+/// <summary>
+/// A stored outbox row. <paramref name="Mime"/> (the stored body: an RFC 5322 message, or for the webhook channel the
+/// JSON document) is null in listings that do not load it. <paramref name="FailedAt"/> is set when the message was
+/// refused for good (a receiver rejected this message): it is kept for audit and never tried again.
+/// </summary>
 public sealed record OutboxEntry(
     long Id,
     string MessageId,
@@ -15,7 +19,10 @@ public sealed record OutboxEntry(
     DateTimeOffset? SentAt,
     string Subject,
     IReadOnlyList<string> Recipients,
-    byte[]? Mime)
+    byte[]? Mime,
+    DateTimeOffset? FailedAt = null)
 {
     public bool IsSent => SentAt is not null;
+
+    public bool IsFailed => FailedAt is not null;
 }

@@ -38,11 +38,21 @@ public enum ChannelKind
 {
     Smtp,
     File,
+    Webhook,
+}
+
+/// <summary>What a webhook mailing list posts: DriftWatch's full JSON document, or a short text form for chat tools.</summary>
+public enum WebhookFormat
+{
+    Full,
+    Text,
 }
 
 /// <summary>One mailing list: its recipients (or, for the file channel, a folder) and the alerts it takes.</summary>
 public sealed record MailingListConfig
 {
+    public static readonly TimeSpan DefaultWebhookTimeout = TimeSpan.FromSeconds(10);
+
     public required string Name { get; init; }
 
     public ChannelKind Channel { get; init; } = ChannelKind.Smtp;
@@ -60,6 +70,21 @@ public sealed record MailingListConfig
 
     /// <summary>For the file channel: the folder .eml files are written to.</summary>
     public string? Directory { get; init; }
+
+    /// <summary>For the webhook channel: where each digest is posted (https, or http to a loopback address).</summary>
+    public Uri? Url { get; init; }
+
+    /// <summary>For the webhook channel: the HMAC-SHA256 key that signs each post. Resolved from ${ENV} or a file; a secret.</summary>
+    public string? Secret { get; init; }
+
+    /// <summary>For the webhook channel: the body's form.</summary>
+    public WebhookFormat Format { get; init; } = WebhookFormat.Full;
+
+    /// <summary>For the webhook channel: how long one post may take, connection included, before it counts as the receiver being down.</summary>
+    public TimeSpan Timeout { get; init; } = DefaultWebhookTimeout;
+
+    /// <summary>Name and channel only: the URL may hold a token and the secret is one.</summary>
+    public override string ToString() => $"{Name} ({Channel})";
 }
 
 public enum SmtpSecurity

@@ -1,6 +1,7 @@
 using DriftWatch.Alerting.Channels;
 using DriftWatch.Alerting.Channels.File;
 using DriftWatch.Alerting.Channels.Smtp;
+using DriftWatch.Alerting.Channels.Webhook;
 using DriftWatch.Alerting.Evaluation;
 using DriftWatch.Alerting.Outbox;
 using DriftWatch.Core.Configuration;
@@ -26,6 +27,7 @@ internal static class AlertingServiceCollectionExtensions
         services.AddSingleton<OutboxSignal>();
         services.AddSingleton<IAlertChannel>(_ => new SmtpAlertChannel(config.Smtp));
         services.AddSingleton<IAlertChannel, FileAlertChannel>();
+        services.AddSingleton<IAlertChannel>(sp => new WebhookAlertChannel(sp.GetRequiredService<TimeProvider>()));
         services.AddSingleton(sp => new OutboxDispatcher(
             sp.GetRequiredService<IOutboxStore>(),
             sp.GetServices<IAlertChannel>(),

@@ -46,7 +46,7 @@ internal static class ConfigKeys
     };
 
     public static readonly KeyLevel MailingList = new(
-        "mailing_list", ["name", "channel", "recipients", "from_severity", "tags", "include_plot", "directory"]);
+        "mailing_list", ["name", "channel", "recipients", "from_severity", "tags", "include_plot", "directory", "url", "secret", "secret_file", "format", "timeout"]);
 
     public static readonly KeyLevel Smtp = new("smtp", ["host", "port", "security", "ca_file", "user", "password", "password_file", "from"]);
 

@@ -34,7 +34,7 @@ internal static class MailingListsSection
     private static MailingListConfig? ReadList(MappingReader reader, Dictionary<string, long> seen, bool smtpGiven)
     {
         var name = NameSection.Read(reader, "mailing list", seen);
-        var channel = reader.Choice("channel", ("smtp", ChannelKind.Smtp), ("file", ChannelKind.File)) ?? ChannelKind.Smtp;
+        var channel = reader.Choice("channel", ("smtp", ChannelKind.Smtp), ("file", ChannelKind.File), ("webhook", ChannelKind.Webhook)) ?? ChannelKind.Smtp;
         var recipients = new List<string>();
         foreach (var (text, at, path) in reader.TextList("recipients"))
         {
@@ -53,7 +53,20 @@ internal static class MailingListsSection
         var tags = PairsSection.ReadTags(reader, "tags");
         var includePlot = reader.Bool("include_plot") ?? true;
         var directory = reader.Text("directory");
-        if (channel == ChannelKind.Smtp)
+        var webhook = WebhookKeys.Read(reader, channel);
+        if (channel == ChannelKind.Webhook)
+        {
+            foreach (var key in (string[])["recipients", "directory", "include_plot"])
+            {
+                if (reader.Has(key))
+                {
+                    reader.Error(key, key == "include_plot"
+                        ? "applies to the smtp and file channels only: a webhook never carries a plot (it links to the dashboard)"
+                        : $"applies to the {(key == "directory" ? "file" : "smtp")} channel only");
+                }
+            }
+        }
+        else if (channel == ChannelKind.Smtp)
         {
             if (!smtpGiven)
             {
@@ -86,6 +99,10 @@ internal static class MailingListsSection
                 Tags = tags,
                 IncludePlot = includePlot,
                 Directory = directory is null ? null : reader.Context.ResolvePath(directory),
+                Url = webhook.Url,
+                Secret = webhook.Secret,
+                Format = webhook.Format,
+                Timeout = webhook.Timeout,
             };
     }
 }

@@ -24,13 +24,19 @@ internal interface IOutboxStore
     /// </summary>
     Task<int> TakeBackClaimsAsync(string owner, DateTimeOffset now, CancellationToken cancellationToken);
 
-    /// <summary>Newest first, without the message bytes.</summary>
+    /// <summary>Newest first, without the message bytes; <paramref name="unsentOnly"/> leaves out sent and failed ones.</summary>
     Task<IReadOnlyList<OutboxEntry>> ListOutboxAsync(bool unsentOnly, int limit, CancellationToken cancellationToken);
 
     Task MarkSentAsync(long id, DateTimeOffset at, CancellationToken cancellationToken);
 
     Task MarkFailedAsync(long id, string error, DateTimeOffset nextAttemptAt, CancellationToken cancellationToken);
 
-    /// <summary>Deletes entries sent before <paramref name="sentBefore"/>; unsent ones are never deleted.</summary>
+    /// <summary>
+    /// Records that a receiver refused this message for good (the error says why): it is kept for audit and never
+    /// claimed again. Only for a refusal of the message itself, never for an outage.
+    /// </summary>
+    Task MarkGivenUpAsync(long id, string error, DateTimeOffset at, CancellationToken cancellationToken);
+
+    /// <summary>Deletes entries sent, or failed for good, before <paramref name="sentBefore"/>; unsent ones are never deleted.</summary>
     Task<int> PruneSentAsync(DateTimeOffset sentBefore, CancellationToken cancellationToken);
 }

@@ -11,7 +11,7 @@ internal sealed class OutboxStore(IStoreDatabase database) : IOutboxStore
     private const string OutboxColumns =
         "id AS Id, message_id AS MessageId, mailing_list AS MailingList, channel AS Channel, created_at_ms AS CreatedAtMs, " +
         "next_attempt_at_ms AS NextAttemptAtMs, attempts AS Attempts, last_error AS LastError, sent_at_ms AS SentAtMs, " +
-        "subject AS Subject, recipients AS Recipients";
+        "subject AS Subject, recipients AS Recipients, failed_at_ms AS FailedAtMs";
 
     public async Task<IReadOnlyList<OutboxEntry>> ClaimDueAsync(DateTimeOffset now, TimeSpan lease, string owner, int limit, CancellationToken cancellationToken)
     {
@@ -24,7 +24,7 @@ internal sealed class OutboxStore(IStoreDatabase database) : IOutboxStore
         var rows = await connection.QueryAsync<OutboxRow>(new CommandDefinition(
             $"""
             UPDATE outbox SET next_attempt_at_ms = @leaseUntil, claimed_by = @owner
-            WHERE id IN (SELECT id FROM outbox WHERE sent_at_ms IS NULL AND next_attempt_at_ms <= @now
+            WHERE id IN (SELECT id FROM outbox WHERE sent_at_ms IS NULL AND failed_at_ms IS NULL AND next_attempt_at_ms <= @now
                          ORDER BY next_attempt_at_ms, id LIMIT @limit {skipLocked})
             RETURNING {OutboxColumns}, mime AS Mime
             """,
@@ -56,7 +56,7 @@ internal sealed class OutboxStore(IStoreDatabase database) : IOutboxStore
         ArgumentException.ThrowIfNullOrEmpty(owner);
         await using var connection = await database.OpenAsync(cancellationToken);
         return await connection.ExecuteAsync(new CommandDefinition(
-            "UPDATE outbox SET next_attempt_at_ms = @now, claimed_by = NULL WHERE claimed_by = @owner AND sent_at_ms IS NULL",
+            "UPDATE outbox SET next_attempt_at_ms = @now, claimed_by = NULL WHERE claimed_by = @owner AND sent_at_ms IS NULL AND failed_at_ms IS NULL",
             new { owner, now = Ms(now) },
             cancellationToken: cancellationToken));
     }
@@ -65,7 +65,7 @@ internal sealed class OutboxStore(IStoreDatabase database) : IOutboxStore
     {
         await using var connection = await database.OpenAsync(cancellationToken);
         var rows = await connection.QueryAsync<OutboxRow>(new CommandDefinition(
-            $"SELECT {OutboxColumns} FROM outbox WHERE (@unsentOnly = 0 OR sent_at_ms IS NULL) ORDER BY id DESC LIMIT @limit",
+            $"SELECT {OutboxColumns} FROM outbox WHERE (@unsentOnly = 0 OR (sent_at_ms IS NULL AND failed_at_ms IS NULL)) ORDER BY id DESC LIMIT @limit",
             new { unsentOnly = unsentOnly ? 1 : 0, limit },
             cancellationToken: cancellationToken));
         return [.. rows.Select(r => r.ToEntry())];
@@ -89,11 +89,20 @@ internal sealed class OutboxStore(IStoreDatabase database) : IOutboxStore
             cancellationToken: cancellationToken));
     }
 
+    public async Task MarkGivenUpAsync(long id, string error, DateTimeOffset at, CancellationToken cancellationToken)
+    {
+        await using var connection = await database.OpenAsync(cancellationToken);
+        await connection.ExecuteAsync(new CommandDefinition(
+            "UPDATE outbox SET attempts = attempts + 1, last_error = @error, failed_at_ms = @at, claimed_by = NULL WHERE id = @id AND sent_at_ms IS NULL",
+            new { id, error, at = Ms(at) },
+            cancellationToken: cancellationToken));
+    }
+
     public async Task<int> PruneSentAsync(DateTimeOffset sentBefore, CancellationToken cancellationToken)
     {
         await using var connection = await database.OpenAsync(cancellationToken);
         return await connection.ExecuteAsync(new CommandDefinition(
-            "DELETE FROM outbox WHERE sent_at_ms IS NOT NULL AND sent_at_ms < @before",
+            "DELETE FROM outbox WHERE (sent_at_ms IS NOT NULL AND sent_at_ms < @before) OR (failed_at_ms IS NOT NULL AND failed_at_ms < @before)",
             new { before = Ms(sentBefore) },
             cancellationToken: cancellationToken));
     }
@@ -133,6 +142,7 @@ internal sealed class OutboxStore(IStoreDatabase database) : IOutboxStore
         public string Subject { get; init; } = "";
         public string Recipients { get; init; } = "[]";
         public byte[]? Mime { get; init; }
+        public long? FailedAtMs { get; init; }
 
         public OutboxEntry ToEntry() => new(
             Id,
@@ -146,6 +156,7 @@ internal sealed class OutboxStore(IStoreDatabase database) : IOutboxStore
             Time(SentAtMs),
             Subject,
             AlertStoreText.Recipients(Recipients),
-            Mime);
+            Mime,
+            Time(FailedAtMs));
     }
 }

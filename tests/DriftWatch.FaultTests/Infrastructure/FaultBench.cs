@@ -171,11 +171,11 @@ public sealed partial class FaultBench : IAsyncDisposable
         var rows = new List<OutboxRow>();
         await using var connection = new NpgsqlConnection(Store.ConnectionString);
         await connection.OpenAsync();
-        await using var command = new NpgsqlCommand("SELECT message_id, sent_at_ms IS NOT NULL, attempts, last_error, subject FROM outbox ORDER BY id", connection);
+        await using var command = new NpgsqlCommand("SELECT message_id, sent_at_ms IS NOT NULL, attempts, last_error, subject, channel FROM outbox ORDER BY id", connection);
         await using var reader = await command.ExecuteReaderAsync();
         while (await reader.ReadAsync())
         {
-            rows.Add(new OutboxRow(reader.GetString(0), reader.GetBoolean(1), reader.GetInt32(2), reader.IsDBNull(3) ? null : reader.GetString(3), reader.GetString(4)));
+            rows.Add(new OutboxRow(reader.GetString(0), reader.GetBoolean(1), reader.GetInt32(2), reader.IsDBNull(3) ? null : reader.GetString(3), reader.GetString(4)) { Channel = reader.GetString(5) });
         }
 
         return rows;
@@ -206,7 +206,8 @@ public sealed partial class FaultBench : IAsyncDisposable
     /// </summary>
     public async Task AssertEveryMailOnceAsync()
     {
-        var outbox = await OutboxAsync();
+        // The mail channel's messages; a webhook list's are checked against its receiver by the test that adds one.
+        var outbox = (await OutboxAsync()).Where(m => m.Channel == "smtp").ToList();
         var received = Smtp.ReceivedIds;
         var context = $"outbox: {string.Join(", ", outbox)}; received: {string.Join(", ", received)}";
         Assert.True(received.Count == received.Distinct(StringComparer.Ordinal).Count(), "a message arrived twice: " + context);
@@ -242,6 +243,9 @@ public sealed partial class FaultBench : IAsyncDisposable
 
 public sealed record RunRow(long Id, string Status, string? Error);
 
-public sealed record OutboxRow(string MessageId, bool Sent, int Attempts, string? LastError, string Subject);
+public sealed record OutboxRow(string MessageId, bool Sent, int Attempts, string? LastError, string Subject)
+{
+    public string Channel { get; init; } = "smtp";
+}
 
 public sealed record AlertRow(long Id, string Status, bool Confirmed);

@@ -21,6 +21,9 @@ public sealed record WorkerSetup
     /// <summary>Short, so alert cycles follow the one-second schedules closely.</summary>
     public string AlertEvery { get; init; } = "1s";
 
+    /// <summary>Further items of <c>alerting.mailing_lists</c>, verbatim, indented as list items under it (4 spaces, "- ").</summary>
+    public string ExtraMailingLists { get; init; } = string.Empty;
+
     /// <summary>Appended verbatim at the end (top-level sections the bench does not write itself).</summary>
     public string ExtraYaml { get; init; } = string.Empty;
 
@@ -63,7 +66,7 @@ public sealed record WorkerSetup
                 - name: fleet
                   recipients: [fleet@depot.example]
                   from_severity: info
-              check_failing_after: {CheckFailingAfter}
+            {ExtraMailingLists}  check_failing_after: {CheckFailingAfter}
             dashboard:
               enabled: true
               bind: 127.0.0.1

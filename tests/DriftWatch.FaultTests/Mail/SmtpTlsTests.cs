@@ -106,8 +106,10 @@ public sealed class SmtpTlsTests : IDisposable
         message.Subject = "TLS delivery";
         message.MessageId = messageId;
         message.Body = new TextPart("plain") { Text = "A message over TLS." };
-        var entry = new OutboxEntry(1, messageId, "fleet", ChannelKind.Smtp, DateTimeOffset.UnixEpoch, DateTimeOffset.UnixEpoch, 0, null, null, message.Subject, ["fleet@depot.example"], null);
+        using var bytes = new MemoryStream();
+        await message.WriteToAsync(bytes);
+        var entry = new OutboxEntry(1, messageId, "fleet", ChannelKind.Smtp, DateTimeOffset.UnixEpoch, DateTimeOffset.UnixEpoch, 0, null, null, message.Subject, ["fleet@depot.example"], bytes.ToArray());
         var list = new MailingListConfig { Name = "fleet", Recipients = ["fleet@depot.example"] };
-        await new SmtpAlertChannel(smtp, TimeSpan.FromSeconds(30)).SendAsync(entry, message, list, CancellationToken.None);
+        await new SmtpAlertChannel(smtp, TimeSpan.FromSeconds(30)).SendAsync(entry, list, CancellationToken.None);
     }
 }

@@ -1,5 +1,6 @@
 using DriftWatch.Alerting.Channels.File;
 using DriftWatch.Alerting.Channels.Smtp;
+using DriftWatch.Alerting.Channels.Webhook;
 using DriftWatch.Alerting.Digest;
 using DriftWatch.Alerting.Evaluation;
 using DriftWatch.Alerting.Outbox;
@@ -31,7 +32,7 @@ internal sealed class AlertHarness
         Processor = new AlertCycleProcessor(Store, config, Time, new OutboxSignal(), NullLogger<AlertCycleProcessor>.Instance);
         Dispatcher = new OutboxDispatcher(
             Outbox,
-            [new SmtpAlertChannel(config.Smtp, TimeSpan.FromSeconds(10)), new FileAlertChannel()],
+            [new SmtpAlertChannel(config.Smtp, TimeSpan.FromSeconds(10)), new FileAlertChannel(), new WebhookAlertChannel(Time)],
             config,
             Options,
             Time,

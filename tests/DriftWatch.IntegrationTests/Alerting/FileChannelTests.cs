@@ -44,11 +44,10 @@ public sealed class FileChannelTests : IDisposable
         var harness = new AlertHarness(await _file.OpenAsync(), config);
         await harness.CycleAsync((Pair("weights"), [Critical(FindingKind.SignFlip, "flipped")]));
         var entry = Assert.Single(await harness.Outbox.ClaimDueAsync(harness.Time.GetUtcNow(), TimeSpan.FromMinutes(5), harness.Options.ClaimOwner, 10, CancellationToken.None));
-        using var parsed = MimeMessage.Load(new MemoryStream(entry.Mime!));
         var channel = new FileAlertChannel();
 
-        await channel.SendAsync(entry, parsed, config.MailingLists[0], CancellationToken.None);
-        await channel.SendAsync(entry, parsed, config.MailingLists[0], CancellationToken.None);
+        await channel.SendAsync(entry, config.MailingLists[0], CancellationToken.None);
+        await channel.SendAsync(entry, config.MailingLists[0], CancellationToken.None);
 
         var file = Assert.Single(Directory.GetFiles(folder));
         Assert.Equal(entry.Mime, await File.ReadAllBytesAsync(file));

@@ -4,7 +4,6 @@ using DriftWatch.Core.Alerting;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.Findings;
 using Microsoft.Extensions.Logging.Abstractions;
-using MimeKit;
 using static DriftWatch.IntegrationTests.Alerting.AlertHarness;
 
 namespace DriftWatch.IntegrationTests.Alerting;
@@ -107,7 +106,9 @@ public sealed class OutboxRestartTests : IDisposable
 
         public ChannelKind Kind => ChannelKind.File;
 
-        public async Task SendAsync(OutboxEntry entry, MimeMessage message, MailingListConfig list, CancellationToken cancellationToken)
+        public ChannelBody Body => ChannelBody.Mail;
+
+        public async Task SendAsync(OutboxEntry entry, MailingListConfig list, CancellationToken cancellationToken)
         {
             Entered.TrySetResult();
             await Release.Task.WaitAsync(cancellationToken);

@@ -12,7 +12,7 @@ namespace DriftWatch.Tests.Alerting;
 public sealed class AlertingServiceCollectionExtensionsTests
 {
     [Fact]
-    public void AddDriftWatchAlerting_ResolvesTheCycleTheDispatcherAndBothChannels()
+    public void AddDriftWatchAlerting_ResolvesTheCycleTheDispatcherAndEveryChannel()
     {
         var services = new ServiceCollection()
             .AddLogging()
@@ -22,7 +22,7 @@ public sealed class AlertingServiceCollectionExtensionsTests
 
         Assert.NotNull(provider.GetRequiredService<AlertCycleProcessor>());
         Assert.NotNull(provider.GetRequiredService<OutboxDispatcher>());
-        Assert.Equal([ChannelKind.Smtp, ChannelKind.File], provider.GetServices<IAlertChannel>().Select(c => c.Kind));
+        Assert.Equal([ChannelKind.Smtp, ChannelKind.File, ChannelKind.Webhook], provider.GetServices<IAlertChannel>().Select(c => c.Kind));
         Assert.Single(provider.GetServices<IHostedService>().OfType<OutboxDispatchService>());
     }
 }

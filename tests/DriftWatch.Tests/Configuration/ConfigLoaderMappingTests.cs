@@ -113,6 +113,17 @@ public sealed class ConfigLoaderMappingTests : IDisposable
                 Assert.Equal(Severity.Critical, archive.FromSeverity);
                 Assert.True(archive.IncludePlot);
                 Assert.Equal(Path.Combine(_dir.Path, "alerts"), archive.Directory);
+            },
+            chat =>
+            {
+                Assert.Equal("chat", chat.Name);
+                Assert.Equal(ChannelKind.Webhook, chat.Channel);
+                Assert.Equal(new Uri("https://hooks.grocer.example/in/hook-token-T0K"), chat.Url);
+                Assert.Equal("hook-Secret-Value-0123", chat.Secret);
+                Assert.Equal(WebhookFormat.Text, chat.Format);
+                Assert.Equal(TimeSpan.FromSeconds(20), chat.Timeout);
+                Assert.Empty(chat.Recipients);
+                Assert.Null(chat.Directory);
             });
     }
 

@@ -12,6 +12,8 @@ internal static class FullConfig
         ["PG_HOST"] = "db.internal",
         ["SMTP_PASSWORD"] = "smtp-Secret-Value-7",
         ["DASH_TOKEN"] = "dashboard-token-0123456789",
+        ["HOOK_TOKEN"] = "hook-token-T0K",
+        ["HOOK_SECRET"] = "hook-Secret-Value-0123",
     };
 
     public const string Yaml = """
@@ -99,6 +101,13 @@ internal static class FullConfig
               recipients: []
               directory: alerts
               from_severity: critical
+            - name: chat
+              channel: webhook
+              url: https://hooks.grocer.example/in/${HOOK_TOKEN}
+              secret: ${HOOK_SECRET}
+              secret_file:
+              format: text
+              timeout: 20s
           smtp:
             host: mail.grocer.example
             port: 465

@@ -85,6 +85,11 @@ internal sealed class AlertCycleProcessor(
         // Per mailing list: one list's bad configuration (an unparsable recipient, say) never holds back the others.
         try
         {
+            if (digest.List.Channel == ChannelKind.Webhook)
+            {
+                return DigestWebhookBody.Compose(digest, options.PublicUrl, now);
+            }
+
             using var message = DigestComposer.Compose(digest, options, now);
             return DigestComposer.ToOutbox(message, digest, now);
         }

@@ -3,7 +3,6 @@ using DriftWatch.Core.Alerting;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Store;
 using Microsoft.Extensions.Logging;
-using MimeKit;
 
 namespace DriftWatch.Alerting.Outbox;
 
@@ -13,7 +12,9 @@ namespace DriftWatch.Alerting.Outbox;
 /// are renewed while it is sent, so they can be short: a dispatcher that dies frees its messages within one lease,
 /// and a worker restarted under the same name takes them back at once (<see cref="TakeBackOwnClaimsAsync"/>). When a mailing list's channel is down, that list's
 /// other claimed messages wait for their lease to run out instead of each waiting on the same dead server,
-/// while the other lists carry on. Nothing is ever dropped: an outage only delays.
+/// while the other lists carry on. Nothing is ever dropped: an outage only delays. The one exception is a message the
+/// receiver refused for good (<see cref="MessageRefusedException"/>): it is recorded as failed, kept for audit and not
+/// tried again, since a retry would be refused the same way.
 /// </summary>
 internal sealed class OutboxDispatcher(
     IOutboxStore store,
@@ -112,7 +113,14 @@ internal sealed class OutboxDispatcher(
                     down.Add(entry.MailingList);
                 }
 
-                await RecordFailureAsync(entry, ex, cancellationToken);
+                if (ex is MessageRefusedException)
+                {
+                    await RecordRefusalAsync(entry, ex, cancellationToken);
+                }
+                else
+                {
+                    await RecordFailureAsync(entry, ex, cancellationToken);
+                }
             }
             finally
             {
@@ -176,10 +184,30 @@ internal sealed class OutboxDispatcher(
             throw new ChannelUnavailableException($"No {list.Channel} channel is registered for mailing list '{list.Name}'.");
         }
 
-        var bytes = entry.Mime ?? throw new InvalidOperationException($"Outbox entry {entry.Id} was claimed without its message.");
-        using var stream = new MemoryStream(bytes, writable: false);
-        using var message = await MimeMessage.LoadAsync(stream, cancellationToken);
-        await channel.SendAsync(entry, message, list, cancellationToken);
+        // The stored bytes were composed for the channel the list had then; a list moved between mail and webhook
+        // cannot send them (a retry would not change that), a list moved between smtp and file can.
+        if (_channels.TryGetValue(entry.Channel, out var composedFor) && composedFor.Body != channel.Body)
+        {
+            throw new MessageRefusedException(
+                $"Message {entry.MessageId} was composed for the {Output.JsonContract.Name(entry.Channel)} channel, but mailing list '{list.Name}' now sends by {Output.JsonContract.Name(list.Channel)}; it cannot be sent in that form.");
+        }
+
+        await channel.SendAsync(entry, list, cancellationToken);
+    }
+
+    private async Task RecordRefusalAsync(OutboxEntry entry, Exception ex, CancellationToken cancellationToken)
+    {
+        logger.LogError("Alert message {MessageId} on mailing list {MailingList} was refused and will not be retried (attempt {Attempt}): {Reason}",
+            entry.MessageId, entry.MailingList, entry.Attempts + 1, ex.Message);
+        try
+        {
+            await store.MarkGivenUpAsync(entry.Id, ex.Message, time.GetUtcNow(), cancellationToken);
+        }
+        catch (Exception storeError) when (storeError is not OperationCanceledException)
+        {
+            // The lease brings the message round again; it will be refused again and recorded then.
+            logger.LogError(storeError, "Could not record the refusal of alert message {MessageId}", entry.MessageId);
+        }
     }
 
     private async Task RecordFailureAsync(OutboxEntry entry, Exception ex, CancellationToken cancellationToken)

@@ -56,7 +56,7 @@ internal static class ApiMapping
             AlertsPage.DeliveryState(entry),
             entry.Attempts,
             entry.SentAt,
-            entry.IsSent ? null : entry.NextAttemptAt,
+            entry.IsSent || entry.IsFailed ? null : entry.NextAttemptAt,
             entry.LastError);
     }
 

@@ -23,7 +23,7 @@ internal static class AlertsPage
             Tile(html, overview.Open.Count(a => a.Status == AlertStatus.Confirmed), "confirmed", "st-confirmed");
             Tile(html, overview.Open.Count(a => a.Status == AlertStatus.Watching), "watching", "st-watching");
             Tile(html, overview.Cleared.Count, "cleared in 7 days", "st-healthy");
-            Tile(html, overview.Deliveries.Count(d => !d.IsSent), "unsent", overview.Deliveries.Any(d => !d.IsSent && d.Attempts > 0) ? "st-failing" : "st-no_runs");
+            Tile(html, overview.Deliveries.Count(d => !d.IsSent), "unsent", overview.Deliveries.Any(d => !d.IsSent && (d.Attempts > 0 || d.IsFailed)) ? "st-failing" : "st-no_runs");
             html.Close("section");
 
             html.Open("section", ("class", "card"), ("aria-labelledby", "open-title"));
@@ -55,11 +55,14 @@ internal static class AlertsPage
         });
     }
 
-    /// <summary>"sent", "queued" (not tried yet), "retrying" (failed at least once, will try again).</summary>
+    /// <summary>
+    /// "sent", "queued" (not tried yet), "retrying" (failed at least once, will try again), "failed" (the receiver
+    /// refused it for good; not tried again).
+    /// </summary>
     public static string DeliveryState(OutboxEntry entry)
     {
         ArgumentNullException.ThrowIfNull(entry);
-        return entry.IsSent ? "sent" : entry.Attempts == 0 ? "queued" : "retrying";
+        return entry.IsSent ? "sent" : entry.IsFailed ? "failed" : entry.Attempts == 0 ? "queued" : "retrying";
     }
 
     private static void Tile(Html html, int n, string label, string css)

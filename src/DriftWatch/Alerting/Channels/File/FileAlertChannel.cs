@@ -1,6 +1,5 @@
 using DriftWatch.Core.Alerting;
 using DriftWatch.Core.Configuration;
-using MimeKit;
 
 namespace DriftWatch.Alerting.Channels.File;
 
@@ -13,7 +12,9 @@ internal sealed class FileAlertChannel : IAlertChannel
 {
     public ChannelKind Kind => ChannelKind.File;
 
-    public async Task SendAsync(OutboxEntry entry, MimeMessage message, MailingListConfig list, CancellationToken cancellationToken)
+    public ChannelBody Body => ChannelBody.Mail;
+
+    public async Task SendAsync(OutboxEntry entry, MailingListConfig list, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(entry);
         ArgumentNullException.ThrowIfNull(list);

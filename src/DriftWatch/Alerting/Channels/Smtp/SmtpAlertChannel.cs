@@ -20,9 +20,15 @@ internal sealed class SmtpAlertChannel(SmtpConfig? smtp, TimeSpan? timeout = nul
 
     public ChannelKind Kind => ChannelKind.Smtp;
 
-    public async Task SendAsync(OutboxEntry entry, MimeMessage message, MailingListConfig list, CancellationToken cancellationToken)
+    public ChannelBody Body => ChannelBody.Mail;
+
+    public async Task SendAsync(OutboxEntry entry, MailingListConfig list, CancellationToken cancellationToken)
     {
-        ArgumentNullException.ThrowIfNull(message);
+        ArgumentNullException.ThrowIfNull(entry);
+        ArgumentNullException.ThrowIfNull(list);
+        var bytes = entry.Mime ?? throw new InvalidOperationException($"Outbox entry {entry.Id} was claimed without its message.");
+        using var stream = new MemoryStream(bytes, writable: false);
+        using var message = await MimeMessage.LoadAsync(stream, cancellationToken);
         if (smtp is null)
         {
             throw new ChannelUnavailableException($"Mailing list '{list.Name}' sends by SMTP but alerting.smtp is not configured.");
