@@ -107,6 +107,24 @@ public sealed class LakeAndMariaDbCheckTests(MariaDbServer server) : IAsyncLifet
         Assert.Single(messages, m => m.Subject == first.Subject);
         AssertDigest(Assert.Single(messages, m => m.Subject != first.Subject), "DriftWatch · maria-parcels: relationship lost (critical)", "weighed_kg");
         Assert.DoesNotContain(messages, m => m.TextBody!.Contains("lake-pallets", StringComparison.Ordinal) || m.TextBody!.Contains("maria-crates", StringComparison.Ordinal));
+
+        // Failures: the lake's files are gone and the MariaDB table is dropped. Exit 3; each failed run names its pair
+        // and what is missing, and the controls are still checked.
+        Directory.Delete(Path.Combine(_folder, "lake", "parcels"), recursive: true);
+        await MariaDbServer.ExecuteAsync(_mysql, "DROP TABLE parcels");
+        var broken = await CheckAsync(config, ExitCodes.RunFailures);
+        AssertFailed(Pair(broken, "lake-parcels"), "Pair 'lake-parcels'", "No files found that match the pattern", "lake/parcels/*.parquet");
+        AssertFailed(Pair(broken, "maria-parcels"), "Pair 'maria-parcels'", "table parcels", "parcels' doesn't exist");
+        AssertQuiet(Pair(broken, "lake-pallets"));
+        AssertQuiet(Pair(broken, "maria-crates"));
+    }
+
+    private static void AssertFailed(JsonElement pair, params string[] parts)
+    {
+        Assert.Equal("failed", pair.GetProperty("status").GetString());
+        var error = pair.GetProperty("error").GetString()!;
+        Assert.All(parts, part => Assert.Contains(part, error, StringComparison.Ordinal));
+        Assert.DoesNotContain('\n', error);
     }
 
     private void WriteLake(string name, string weighed) =>
