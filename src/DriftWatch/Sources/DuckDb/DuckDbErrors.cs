@@ -61,9 +61,11 @@ internal static class DuckDbErrors
             : new SourceException(SourceFailure.QueryError, $"{subject}: query failed: {text}", duck);
     }
 
+    /// <summary>The message up to DuckDB's statement context, on one line (a hint such as "Candidate bindings: …" follows a line break).</summary>
     private static string WithoutStatement(string message)
     {
         var at = message.IndexOf("\nLINE ", StringComparison.Ordinal);
-        return at < 0 ? message : message[..at].TrimEnd();
+        var text = at < 0 ? message : message[..at];
+        return string.Join(' ', text.Split(['\r', '\n'], StringSplitOptions.RemoveEmptyEntries | StringSplitOptions.TrimEntries));
     }
 }
