@@ -4,7 +4,9 @@ using DriftWatch.IntegrationTests.Alerting;
 using DriftWatch.IntegrationTests.Infrastructure;
 using MathNet.Numerics.Statistics;
 using Microsoft.Data.Sqlite;
+using MimeKit;
 using MySqlConnector;
+using netDumbster.smtp;
 
 namespace DriftWatch.IntegrationTests.Hosting;
 
@@ -54,7 +56,8 @@ public sealed class LakeAndMariaDbWorkerTests(MariaDbServer server) : IAsyncLife
             INSERT INTO doomed VALUES {Values(SetI, 0, 11)};
             """);
         var port = LoopbackSmtp.FreePort();
-        var config = WriteConfig(port);
+        using var smtp = LoopbackSmtp.Start();
+        var config = WriteConfig(port, LoopbackSmtp.Port(smtp));
         using var client = new HttpClient { BaseAddress = new Uri($"http://127.0.0.1:{port}") };
 
         using var worker = WorkerProcess.Start(config);
@@ -145,7 +148,40 @@ public sealed class LakeAndMariaDbWorkerTests(MariaDbServer server) : IAsyncLife
         }
 
         Assert.Contains("/api/pairs/{name}/runs", await client.GetStringAsync(new Uri("/api", UriKind.Relative)), StringComparison.Ordinal);
+
+        // Alerts: each failing pair, after three failed checks in a row (check_failing_after), is mailed once as a
+        // critical "cannot be checked" with its error; the healthy pairs are never mailed.
+        var mails = await MailsAsync(smtp, worker, all => Section(all, "lake-missing") && Section(all, "maria-doomed"));
         Assert.Equal(0, await worker.StopAsync());
+        foreach (var (pair, error) in new[] { ("lake-missing", "No files found that match the pattern"), ("maria-doomed", "doomed' doesn't exist") })
+        {
+            var mail = Assert.Single(mails, m => m.TextBody!.Contains($"== {pair} ==", StringComparison.Ordinal));
+            Assert.Contains("cannot be checked", mail.Subject, StringComparison.Ordinal);
+            Assert.Contains("(critical)", mail.Subject, StringComparison.Ordinal);
+            Assert.Contains(error, mail.TextBody!, StringComparison.Ordinal);
+            Assert.Contains("statistical signals, not proof", mail.TextBody!, StringComparison.Ordinal);
+        }
+
+        Assert.False(Section(mails, "lake-anscombe") || Section(mails, "maria-anscombe"), "a healthy pair was mailed");
+
+        static bool Section(IReadOnlyList<MimeMessage> all, string pair) => all.Any(m => m.TextBody!.Contains($"== {pair} ==", StringComparison.Ordinal));
+    }
+
+    /// <summary>The messages received so far, once <paramref name="done"/> holds for them (bounded by the worker's deadline).</summary>
+    private static async Task<IReadOnlyList<MimeMessage>> MailsAsync(SimpleSmtpServer smtp, WorkerProcess worker, Func<IReadOnlyList<MimeMessage>, bool> done)
+    {
+        using var deadline = new CancellationTokenSource(WorkerProcess.Deadline);
+        while (true)
+        {
+            var received = LoopbackSmtp.Received(smtp);
+            if (done(received))
+            {
+                return received;
+            }
+
+            Assert.False(deadline.IsCancellationRequested, $"gave up waiting for mail; {received.Count} received; worker output:\n{worker.Output}");
+            await Task.Delay(100);
+        }
     }
 
     private static string Values(double[] y, int from, int to) =>
@@ -157,7 +193,7 @@ public sealed class LakeAndMariaDbWorkerTests(MariaDbServer server) : IAsyncLife
 
     private static DateTimeOffset StartedAt(JsonElement run) => run.GetProperty("started_at").GetDateTimeOffset();
 
-    private string WriteConfig(int port)
+    private string WriteConfig(int port, int smtpPort)
     {
         var path = Path.Combine(_folder, "driftwatch.yaml");
         File.WriteAllText(path, $"""
@@ -201,6 +237,16 @@ public sealed class LakeAndMariaDbWorkerTests(MariaDbServer server) : IAsyncLife
               port: {port}
             worker:
               stop_grace: 5s
+            alerting:
+              smtp:
+                host: 127.0.0.1
+                port: {smtpPort}
+                security: none
+                from: driftwatch@example.test
+              mailing_lists:
+                - name: oncall
+                  recipients: [oncall@example.test]
+                  from_severity: warning
             """);
         return path;
     }
