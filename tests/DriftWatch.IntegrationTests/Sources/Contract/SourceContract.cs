@@ -247,11 +247,22 @@ public abstract class SourceContract : IAsyncLifetime
     public async Task Unreachable_MissingTable_MissingColumn_NonNumeric_AreTheirFailureClasses()
     {
         Assert.Equal(SourceFailure.Unreachable, (await FailAsync(Pair(), CreateUnreachableSource())).Failure);
-        Assert.Equal(SourceFailure.MissingTable, (await FailAsync(Pair("nowhere"))).Failure);
-        Assert.Equal(SourceFailure.MissingColumn, (await FailAsync(Pair(x: "no_such_column"))).Failure);
+        var table = await FailAsync(Pair("nowhere"));
+        Assert.Equal(SourceFailure.MissingTable, table.Failure);
+        AssertOneLineNaming(table.Message, "Pair 'contract.nowhere'", "nowhere");
+        var column = await FailAsync(Pair(x: "no_such_column"));
+        Assert.Equal(SourceFailure.MissingColumn, column.Failure);
+        AssertOneLineNaming(column.Message, "Pair 'contract.readings'", "no_such_column");
         var text = await FailAsync(Pair(x: "label"));
         Assert.Equal(SourceFailure.NonNumericColumn, text.Failure);
         Assert.Contains("label", text.Message, StringComparison.Ordinal);
+    }
+
+    /// <summary>A failed run's message is read in a table row, a mail line and a log line: one line that names the pair and what is missing.</summary>
+    private static void AssertOneLineNaming(string message, params string[] parts)
+    {
+        Assert.All(parts, part => Assert.Contains(part, message, StringComparison.Ordinal));
+        Assert.DoesNotContain('\n', message);
     }
 
     [Fact]
