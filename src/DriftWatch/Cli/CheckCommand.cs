@@ -21,13 +21,14 @@ internal static class CheckCommand
         var pair = new Option<string?>("--pair", "-p") { Description = "Check only this pair (by its name in the configuration).", HelpName = "NAME" };
         var format = CommonOptions.Format();
         var verbose = VerboseOption.Create();
+        var asOf = AsOfOption.Create();
         var command = new Command(
             "check",
             "Check every watched pair (or one) now, record the runs, evaluate alerts and send what is due. " +
             "Exit code 0: healthy; 1: a finding at warning or worse; 2: configuration error; 3: a check failed to run or had nothing to measure.\n\n" +
             "Example (a pipeline step after the nightly load): driftwatch check --config /etc/driftwatch/driftwatch.yaml --format json")
         {
-            config, pair, format, verbose,
+            config, pair, format, verbose, asOf,
         };
         command.SetAction(async (parse, ct) =>
         {
@@ -45,6 +46,12 @@ internal static class CheckCommand
             }
 
             await using var services = await OneShotServices.StartAsync(loaded, parse.GetValue(verbose), ct);
+            var at = parse.GetValue(asOf);
+            if (at is { } past)
+            {
+                AsOfOption.CheckInPast(past, services.GetRequiredService<TimeProvider>().GetUtcNow());
+            }
+
             var progress = new ImmediateProgress<PairCheckResult>(r => console.Error.WriteLine(
                 r.Status switch
                 {
@@ -54,7 +61,7 @@ internal static class CheckCommand
                     _ => $"  checked {r.Pair.Name} ({r.Findings.Count} finding{(r.Findings.Count == 1 ? "" : "s")})",
                 }));
             console.Error.WriteLine($"Checking {pairs.Count} pair{(pairs.Count == 1 ? "" : "s")}…");
-            var pass = await services.GetRequiredService<CheckPass>().RunAsync(pairs, progress, ct);
+            var pass = await services.GetRequiredService<CheckPass>().RunAsync(pairs, progress, at, ct);
             var results = pass.Checks;
             var exit = ExitCodeOf(results);
             if (pass.Notifications > 0 || pass.Delivery.Sent + pass.Delivery.Failed > 0)
