@@ -25,4 +25,16 @@ public sealed record NewRun(
     /// runs that are written once and only once (one-shot commands).
     /// </summary>
     public string? RunKey { get; init; }
+
+    /// <summary>
+    /// Where the run's window ended: the check time (anchor <c>now</c>) or the newest value of the window column
+    /// (anchor <c>latest</c>); null without a window, when latest found no value, or for runs stored before it was recorded.
+    /// </summary>
+    public DateTimeOffset? WindowEnd { get; init; }
+
+    /// <summary>
+    /// For a back-dated run (<c>check --as-of</c>): when it was actually made; its <c>StartedAt</c> is the as-of time.
+    /// Such runs are history and baseline material, never alert evidence. Null for runs made at their own time.
+    /// </summary>
+    public DateTimeOffset? BackDatedAt { get; init; }
 }

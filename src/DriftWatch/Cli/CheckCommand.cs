@@ -22,6 +22,7 @@ internal static class CheckCommand
         var format = CheckOptions.Format();
         var (tags, failAt, output) = (CheckOptions.Tags(), CheckOptions.FailAt(), CheckOptions.Output());
         var verbose = VerboseOption.Create();
+        var asOf = AsOfOption.Create();
         var command = new Command(
             "check",
             "Check every watched pair (or those named by --pair and --tag) now, record the runs, evaluate alerts and send what is due. " +
@@ -29,7 +30,7 @@ internal static class CheckCommand
             "Example (a pipeline step after the nightly load): driftwatch check --config /etc/driftwatch/driftwatch.yaml --format json\n" +
             "Example (a CI job's test report, one team's pairs): driftwatch check --tag billing --format junit --output reports/driftwatch.xml")
         {
-            config, pair, format, verbose,
+            config, pair, format, verbose, asOf,
             tags, failAt, output,
         };
         command.SetAction(async (parse, ct) =>
@@ -53,6 +54,12 @@ internal static class CheckCommand
             }
 
             await using var services = await OneShotServices.StartAsync(loaded, parse.GetValue(verbose), ct);
+            var at = parse.GetValue(asOf);
+            if (at is { } past)
+            {
+                AsOfOption.CheckInPast(past, services.GetRequiredService<TimeProvider>().GetUtcNow());
+            }
+
             var progress = new ImmediateProgress<PairCheckResult>(r => console.Error.WriteLine(
                 r.Status switch
                 {
@@ -62,7 +69,7 @@ internal static class CheckCommand
                     _ => $"  checked {r.Pair.Name} ({r.Findings.Count} finding{(r.Findings.Count == 1 ? "" : "s")})",
                 }));
             console.Error.WriteLine($"Checking {pairs.Count} pair{(pairs.Count == 1 ? "" : "s")}…");
-            var pass = await services.GetRequiredService<CheckPass>().RunAsync(pairs, progress, ct);
+            var pass = await services.GetRequiredService<CheckPass>().RunAsync(pairs, progress, at, ct);
             var results = pass.Checks;
             var failing = parse.GetValue(failAt) ?? CheckOptions.DefaultFailAt;
             var exit = ExitCodeOf(results, failing);

@@ -36,6 +36,18 @@ internal static class CheckOutput
         }
 
         console.Write(table);
+        foreach (var r in results.Where(r => r.RepeatOf is not null))
+        {
+            console.MarkupLine(
+                $"[grey]repeat[/] [bold]{Markup.Escape(r.Pair.Name)}[/]: same load as run {r.RepeatOf} (window ended at {Markup.Escape(EndText(r.WindowEnd))}); nothing new recorded");
+        }
+
+        foreach (var r in results.Where(r => r.BackDated && r.RepeatOf is null))
+        {
+            console.MarkupLine(
+                $"[grey]back-dated[/] [bold]{Markup.Escape(r.Pair.Name)}[/]: recorded as of {Markup.Escape(Figures.Time(r.StartedAt))}, window ended at {Markup.Escape(EndText(r.WindowEnd))}; no alert is raised or mailed for it");
+        }
+
         foreach (var r in results.Where(r => r.Error is not null))
         {
             console.MarkupLine($"{StatusMarkup(r)} [bold]{Markup.Escape(r.Pair.Name)}[/]: {Markup.Escape(r.Error!)}");
@@ -54,6 +66,8 @@ internal static class CheckOutput
             ? RunStatusText.Markup(r.Status)
             : RunStatusText.Markup(r.Status) + " [grey](no baseline yet)[/]";
 
+    private static string EndText(DateTimeOffset? end) => end is { } e ? Figures.Time(e) : "— (no value of the window column)";
+
     public static CheckReportJson ToJson(IReadOnlyList<PairCheckResult> results, int exitCode) => new(
         exitCode,
         [.. results.Select(r => new CheckPairJson(
@@ -67,7 +81,10 @@ internal static class CheckOutput
             r.Profile is null ? null : JsonContract.ToJson(r.Profile),
             [.. r.Findings.Select(JsonContract.ToJson)],
             WindowJson.Of(r.Window),
-            JudgedAgainstJson.Of(r.JudgedAgainst)))]);
+            JudgedAgainstJson.Of(r.JudgedAgainst),
+            r.WindowEnd,
+            r.BackDated,
+            r.RepeatOf))]);
 }
 
 internal sealed record CheckReportJson(
@@ -85,4 +102,7 @@ internal sealed record CheckPairJson(
     [property: JsonPropertyName("profile")] ProfileJson? Profile,
     [property: JsonPropertyName("findings")] IReadOnlyList<FindingJson> Findings,
     [property: JsonPropertyName("window")] WindowJson? Window,
-    [property: JsonPropertyName("judged_against")] JudgedAgainstJson? JudgedAgainst);
+    [property: JsonPropertyName("judged_against")] JudgedAgainstJson? JudgedAgainst,
+    [property: JsonPropertyName("window_ended_at")] DateTimeOffset? WindowEndedAt,
+    [property: JsonPropertyName("back_dated")] bool BackDated,
+    [property: JsonPropertyName("repeat_of_run")] long? RepeatOfRun);

@@ -20,7 +20,7 @@ internal static class ConfigKeys
     public static readonly KeyLevel Defaults = new(
         "defaults", ("schedule", null), ("sample", Sample), ("thresholds", Thresholds), ("baseline", Baseline));
 
-    public static readonly KeyLevel Window = new("window", ["column", "last"]);
+    public static readonly KeyLevel Window = new("window", ["column", "last", "anchor"]);
 
     public static readonly KeyLevel Declared = new("declared", ["direction", "exact"]);
 

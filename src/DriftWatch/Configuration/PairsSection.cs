@@ -213,8 +213,9 @@ internal static class PairsSection
             last = reader.Duration("last", MinWindow, MaxWindow);
         }
 
+        var anchor = reader.Choice("anchor", ("now", WindowAnchor.Now), ("latest", WindowAnchor.Latest)) ?? WindowSpec.DefaultAnchor;
         reader.Done();
-        return column is null || last is null ? null : new WindowSpec(column, last.Value);
+        return column is null || last is null ? null : new WindowSpec(column, last.Value, anchor);
     }
 
     private static PairDeclaration ReadDeclared(MappingReader? reader)

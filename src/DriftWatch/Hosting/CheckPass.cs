@@ -13,9 +13,17 @@ namespace DriftWatch.Hosting;
 /// </summary>
 internal sealed class CheckPass(MonitorCycle cycle, AlertEvaluation alerts, OutboxDispatcher outbox)
 {
-    public async Task<CheckPassResult> RunAsync(IReadOnlyList<PairConfig> pairs, IProgress<PairCheckResult>? progress, CancellationToken cancellationToken)
+    public Task<CheckPassResult> RunAsync(IReadOnlyList<PairConfig> pairs, IProgress<PairCheckResult>? progress, CancellationToken cancellationToken) =>
+        RunAsync(pairs, progress, null, cancellationToken);
+
+    /// <param name="asOf">
+    /// Check as of this past time (<c>check --as-of</c>). Its runs are back-dated, which alert evaluation never reads
+    /// (<see cref="Store.RunFeed"/>): the evaluation and delivery that follow concern other runs only, so nobody is
+    /// mailed about the past.
+    /// </param>
+    public async Task<CheckPassResult> RunAsync(IReadOnlyList<PairConfig> pairs, IProgress<PairCheckResult>? progress, DateTimeOffset? asOf, CancellationToken cancellationToken)
     {
-        var results = await cycle.RunAsync(pairs, progress, cancellationToken);
+        var results = await cycle.RunAsync(pairs, progress, asOf, cancellationToken);
         var cycles = await alerts.EvaluateNewRunsAsync(cancellationToken);
         var delivery = await outbox.DispatchDueAsync(cancellationToken);
         return new CheckPassResult(results, cycles, delivery);

@@ -10,9 +10,16 @@ internal sealed class MonitorCycle(PairChecker checker)
 {
     public const int MaxParallelChecks = 8;
 
+    public Task<IReadOnlyList<PairCheckResult>> RunAsync(
+        IReadOnlyList<PairConfig> pairs,
+        IProgress<PairCheckResult>? progress,
+        CancellationToken cancellationToken) => RunAsync(pairs, progress, null, cancellationToken);
+
+    /// <param name="asOf">Check as of this past time (see <see cref="PairChecker.CheckAsync(PairConfig, DateTimeOffset?, CancellationToken)"/>).</param>
     public async Task<IReadOnlyList<PairCheckResult>> RunAsync(
         IReadOnlyList<PairConfig> pairs,
         IProgress<PairCheckResult>? progress,
+        DateTimeOffset? asOf,
         CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(pairs);
@@ -22,7 +29,7 @@ internal sealed class MonitorCycle(PairChecker checker)
             new ParallelOptions { MaxDegreeOfParallelism = MaxParallelChecks, CancellationToken = cancellationToken },
             async (i, ct) =>
             {
-                results[i] = await checker.CheckAsync(pairs[i], ct);
+                results[i] = await checker.CheckAsync(pairs[i], asOf, ct);
                 progress?.Report(results[i]);
             });
         return results;

@@ -23,6 +23,18 @@ internal sealed record PairCheckResult(
     /// <summary>The baseline the run was judged against.</summary>
     public BaselineSummary? JudgedAgainst { get; init; }
 
+    /// <summary>Where the run's window ended (see <see cref="NewRun.WindowEnd"/>).</summary>
+    public DateTimeOffset? WindowEnd { get; init; }
+
+    /// <summary>The run is back-dated (<c>check --as-of</c>): recorded at its as-of time, never alert evidence.</summary>
+    public bool BackDated { get; init; }
+
+    /// <summary>
+    /// Set when the check found the same load an earlier run already read (anchor latest): nothing new was recorded,
+    /// and this result is that run's (its id, status, figures and findings).
+    /// </summary>
+    public long? RepeatOf { get; init; }
+
     public Severity? WorstSeverity => Findings.Count == 0 ? null : Findings.Max(f => f.Severity);
 
     public TimeSpan Elapsed => FinishedAt - StartedAt;

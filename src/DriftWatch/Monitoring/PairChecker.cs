@@ -27,11 +27,27 @@ internal sealed class PairChecker(
     ILogger<PairChecker> logger,
     LiveConfig? live = null)
 {
-    public async Task<PairCheckResult> CheckAsync(PairConfig pair, CancellationToken cancellationToken)
+    /// <summary>How many of a pair's latest runs are searched for one that already read the same load (anchor latest).</summary>
+    public const int RepeatLookback = 50;
+
+    public Task<PairCheckResult> CheckAsync(PairConfig pair, CancellationToken cancellationToken) => CheckAsync(pair, null, cancellationToken);
+
+    /// <param name="asOf">
+    /// Check as of this past time (<c>check --as-of</c>): the window ends there (anchor now) or at the newest value at
+    /// or before it (anchor latest), and the run is recorded at that time, marked back-dated (see <see cref="NewRun.BackDatedAt"/>).
+    /// </param>
+    public async Task<PairCheckResult> CheckAsync(PairConfig pair, DateTimeOffset? asOf, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(pair);
         using var _ = LogContext.PushProperty("Pair", pair.Name);
-        var startedAt = time.GetUtcNow();
+        var madeAt = time.GetUtcNow();
+        // The check's own time: what the window, the baseline and the comparisons are relative to, and where the run is recorded.
+        var startedAt = asOf ?? madeAt;
+        if (await FindRepeatAsync(pair, startedAt, cancellationToken) is { } repeat)
+        {
+            return repeat;
+        }
+
         // A marker on the local disk until the run is recorded: a crash in between becomes an interrupted run.
         var runKey = recorder.Begin(pair.Name, startedAt);
         RelationshipProfile? profile = null;
@@ -82,7 +98,7 @@ internal sealed class PairChecker(
             logger.LogError(ex, "Check of {Pair} failed unexpectedly", pair.Name);
         }
 
-        var finishedAt = time.GetUtcNow();
+        var finishedAt = startedAt + (time.GetUtcNow() - madeAt);
         var status = error is not null ? RunStatus.Failed : unmeasurable is not null ? RunStatus.Unmeasurable : RunStatus.Succeeded;
         // An unmeasurable run keeps its profile and points: the counts (and any rows) are what people need to see.
         var measured = status != RunStatus.Failed;
@@ -99,6 +115,8 @@ internal sealed class PairChecker(
             sampled?.Method)
         {
             JudgedAgainst = status == RunStatus.Succeeded && baseline is not null ? BaselineSummary.Of(baseline) : null,
+            WindowEnd = sampled?.WindowEnd,
+            BackDatedAt = asOf is null ? null : madeAt,
         };
         // The store, or the worker's spool when the store cannot take it (see RunRecorder).
         var runId = await recorder.RecordAsync(run with { RunKey = runKey });
@@ -114,7 +132,65 @@ internal sealed class PairChecker(
         {
             Window = run.SourceFigures,
             JudgedAgainst = run.JudgedAgainst,
+            WindowEnd = run.WindowEnd,
+            BackDated = asOf is not null,
         };
+    }
+
+    /// <summary>
+    /// With anchor latest, the same load is found again at every check until the next one lands. When one of the
+    /// pair's last <see cref="RepeatLookback"/> runs already read a window ending at the same newest value (and measured
+    /// it, or found nothing to measure), this check is that run again: nothing is sampled or recorded, so identical
+    /// data never counts twice toward alert confirmation or a baseline, and the earlier run's result is returned.
+    /// A failure here is not the check's to report: the check then runs as usual and records what it finds.
+    /// </summary>
+    private async Task<PairCheckResult?> FindRepeatAsync(PairConfig pair, DateTimeOffset at, CancellationToken cancellationToken)
+    {
+        if (pair.Window is not { Anchor: WindowAnchor.Latest })
+        {
+            return null;
+        }
+
+        try
+        {
+            var source = (live?.Current ?? config).FindSource(pair.Source);
+            if (source is null || await sources.Create(source).LatestAsync(pair, at, cancellationToken) is not { } newest)
+            {
+                return null;
+            }
+
+            var recent = await store.GetRunsAsync(pair.Name, RepeatLookback, includePoints: false, cancellationToken);
+            var same = recent.FirstOrDefault(r =>
+                r.Status is RunStatus.Succeeded or RunStatus.Unmeasurable
+                && r.WindowEnd?.ToUnixTimeMilliseconds() == newest.ToUnixTimeMilliseconds());
+            if (same is null)
+            {
+                return null;
+            }
+
+            logger.LogInformation(
+                "Check of {Pair} is a repeat: the window still ends at the newest {Column} {WindowEnd:O}, already checked by run {RunId}; nothing recorded",
+                pair.Name, pair.Window.Column, newest, same.Id);
+            return new PairCheckResult(pair, same.Id, same.Status, same.Error, same.Profile, same.Findings, same.StartedAt, same.FinishedAt, same.JudgedAgainst is not null)
+            {
+                Window = same.SourceFigures,
+                JudgedAgainst = same.JudgedAgainst,
+                WindowEnd = same.WindowEnd,
+                BackDated = same.BackDatedAt is not null,
+                RepeatOf = same.Id,
+            };
+        }
+        catch (OperationCanceledException) when (cancellationToken.IsCancellationRequested)
+        {
+            throw;
+        }
+#pragma warning disable CA1031 // The lookup is an optimisation of the check: whatever fails here, the check itself runs and reports it.
+        catch (Exception ex)
+#pragma warning restore CA1031
+        {
+            logger.LogDebug(ex, "Could not tell whether the check of {Pair} repeats an earlier one; checking", pair.Name);
+            return null;
+        }
     }
 
     /// <summary>

@@ -18,7 +18,9 @@ internal sealed record RunJson(
     ProfileJson? Profile,
     IReadOnlyList<FindingJson> Findings,
     WindowJson? Window,
-    JudgedAgainstJson? JudgedAgainst)
+    JudgedAgainstJson? JudgedAgainst,
+    DateTimeOffset? WindowEndedAt,
+    DateTimeOffset? BackDatedAt)
 {
     public static RunJson Of(RunRecord run)
     {
@@ -34,6 +36,8 @@ internal sealed record RunJson(
             run.Profile is null ? null : JsonContract.ToJson(run.Profile),
             [.. run.Findings.Select(JsonContract.ToJson)],
             WindowJson.Of(run.SourceFigures),
-            JudgedAgainstJson.Of(run.JudgedAgainst));
+            JudgedAgainstJson.Of(run.JudgedAgainst),
+            run.WindowEnd,
+            run.BackDatedAt);
     }
 }

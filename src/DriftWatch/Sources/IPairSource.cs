@@ -12,8 +12,19 @@ internal interface IPairSource
 {
     SourceConfig Config { get; }
 
-    /// <summary>Samples the pair and computes push-down figures over the whole window. <paramref name="now"/> anchors the window.</summary>
+    /// <summary>
+    /// Samples the pair and computes push-down figures over the whole window. <paramref name="now"/> is the check time
+    /// (or the <c>--as-of</c> time): the window's end with anchor <c>now</c>, the latest value's upper limit with anchor
+    /// <c>latest</c> (see <see cref="WindowRange"/>); <see cref="SampledPair.WindowEnd"/> says where it ended.
+    /// </summary>
     Task<SampledPair> SampleAsync(PairConfig pair, DateTimeOffset now, CancellationToken cancellationToken);
+
+    /// <summary>
+    /// The newest value of the pair's window column at or before <paramref name="at"/>, within the pair's filter,
+    /// computed in the database (same read-only session and statement timeout as <see cref="SampleAsync"/>); null when
+    /// there is none or the pair has no window. Anchor <c>latest</c> ends the window there.
+    /// </summary>
+    Task<DateTimeOffset?> LatestAsync(PairConfig pair, DateTimeOffset at, CancellationToken cancellationToken);
 
     /// <summary>How many rows <see cref="FarthestFromLineAsync"/> returns unless asked otherwise.</summary>
     const int DefaultDrivingRows = 5;

@@ -17,7 +17,8 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
 {
     private const string RunColumns =
         "id AS Id, pair AS Pair, started_at_ms AS StartedAtMs, finished_at_ms AS FinishedAtMs, status AS Status, error AS Error, " +
-        "sample_method AS SampleMethod, profile_json AS ProfileJson, source_figures_json AS FiguresJson, baseline_json AS BaselineJson";
+        "sample_method AS SampleMethod, profile_json AS ProfileJson, source_figures_json AS FiguresJson, baseline_json AS BaselineJson, " +
+        "window_end_ms AS WindowEndMs, back_dated_at_ms AS BackDatedAtMs";
 
     private const string FindingColumns =
         "run_id AS RunId, kind AS Kind, severity AS Severity, p_value AS PValue, effect AS Effect, message AS Message";
@@ -34,6 +35,19 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
         // same statement a store before migration 005 took.
         var judged = run.JudgedAgainst is null ? string.Empty : ", baseline_json";
         var judgedValue = run.JudgedAgainst is null ? string.Empty : ", @BaselineJson";
+        // Named only when set, as baseline_json: a run without them is the statement older stores took.
+        if (run.WindowEnd is not null)
+        {
+            judged += ", window_end_ms";
+            judgedValue += ", @WindowEndMs";
+        }
+
+        if (run.BackDatedAt is not null)
+        {
+            judged += ", back_dated_at_ms";
+            judgedValue += ", @BackDatedAtMs";
+        }
+
         if (run.RunKey is not null)
         {
             // Written at most once per key (migration 009's unique index backs this): a run the spool writes again
@@ -69,6 +83,8 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
                 FiguresJson = run.SourceFigures is null ? null : StoreJson.Serialize(run.SourceFigures),
                 Points = points,
                 run.RunKey,
+                WindowEndMs = run.WindowEnd?.ToUnixTimeMilliseconds(),
+                BackDatedAtMs = run.BackDatedAt?.ToUnixTimeMilliseconds(),
             },
             transaction,
             cancellationToken: cancellationToken));
@@ -247,6 +263,8 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
         public string? FiguresJson { get; init; }
         public byte[]? Points { get; init; }
         public string? BaselineJson { get; init; }
+        public long? WindowEndMs { get; init; }
+        public long? BackDatedAtMs { get; init; }
 
         public RunRecord ToRecord(IReadOnlyList<Finding> findings) => new(
             Id,
@@ -262,6 +280,8 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
             SampleMethod)
         {
             JudgedAgainst = StoreJson.Deserialize<BaselineSummary>(BaselineJson),
+            WindowEnd = WindowEndMs is { } end ? FromMs(end) : null,
+            BackDatedAt = BackDatedAtMs is { } made ? FromMs(made) : null,
         };
     }
 

@@ -56,12 +56,16 @@ internal sealed class RunFeed(IStoreDatabase database)
         }
     }
 
-    /// <summary>Ids and pairs of runs recorded after <paramref name="afterId"/>, oldest first.</summary>
+    /// <summary>
+    /// Ids and pairs of runs recorded after <paramref name="afterId"/>, oldest first. Back-dated runs (<c>check
+    /// --as-of</c>) are left out: they are about the past, so they never count toward an alert or mail anyone; the
+    /// watermark moves past them with the next run read.
+    /// </summary>
     public async Task<IReadOnlyList<(long Id, string Pair)>> GetRunsAfterAsync(long afterId, int limit, CancellationToken cancellationToken)
     {
         await using var connection = await database.OpenAsync(cancellationToken);
         var rows = await connection.QueryAsync<(long, string)>(new CommandDefinition(
-            "SELECT id, pair FROM runs WHERE id > @afterId ORDER BY id LIMIT @limit",
+            "SELECT id, pair FROM runs WHERE id > @afterId AND back_dated_at_ms IS NULL ORDER BY id LIMIT @limit",
             new { afterId, limit },
             cancellationToken: cancellationToken));
         return [.. rows];

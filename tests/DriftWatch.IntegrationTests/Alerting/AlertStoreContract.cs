@@ -24,8 +24,9 @@ public abstract class AlertStoreContract
         var versions = await connection.QueryAsync<int>("SELECT version FROM schema_migrations ORDER BY version");
 
         // 001 history, 002 alerts, 003 worker state, 004 unmeasurable runs, 005 baseline runs, 006 alert
-        // vocabulary, 007 outbox claims, 008 audit log and baseline resets, 009 run keys, 011 webhook outbox: all of them, in order.
-        Assert.Equal([1, 2, 3, 4, 5, 6, 7, 8, 9, 11], versions);
+        // vocabulary, 007 outbox claims, 008 audit log and baseline resets, 009 run keys, 011 webhook outbox, 012 window
+        // end and back-dated runs: all of them, in order.
+        Assert.Equal([1, 2, 3, 4, 5, 6, 7, 8, 9, 11, 12], versions);
     }
 
     [Fact]

@@ -137,7 +137,7 @@ public sealed class ConfigLoaderMappingTests : IDisposable
         Assert.Null(pair.Query);
         Assert.Equal("basket_items", pair.X);
         Assert.Equal("basket_value", pair.Y);
-        Assert.Equal(new WindowSpec("placed_at", TimeSpan.FromHours(36)), pair.Window);
+        Assert.Equal(new WindowSpec("placed_at", TimeSpan.FromHours(36), WindowAnchor.Latest), pair.Window);
 
         // sample: rows and method from the pair, the rest from defaults.sample.
         Assert.Equal(new SampleSpec { Rows = 300, Method = SampleMethod.Tablesample, AllRowsBelow = 1000, Bernoulli = true, Seed = 7 }, pair.Sample);

@@ -57,6 +57,7 @@ internal static class FullConfig
             window:
               column: placed_at
               last: 1d12h
+              anchor: latest
             sample:
               rows: 300
               method: tablesample

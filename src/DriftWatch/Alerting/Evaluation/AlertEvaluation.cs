@@ -204,6 +204,7 @@ internal sealed class AlertEvaluation(
     {
         var lookback = Math.Max(1, config.Alerting.CheckFailingAfter) + 1;
         var recent = await history.GetRunsAsync(pair.Name, lookback, includePoints: false, cancellationToken, before: run.StartedAt.AddMilliseconds(1));
-        return recent.Where(r => r.Id <= run.Id).TakeWhile(r => r.Status is RunStatus.Failed or RunStatus.Unmeasurable or RunStatus.Interrupted).Count();
+        // Back-dated runs (check --as-of) are history, not the pair's current streak.
+        return recent.Where(r => r.Id <= run.Id && r.BackDatedAt is null).TakeWhile(r => r.Status is RunStatus.Failed or RunStatus.Unmeasurable or RunStatus.Interrupted).Count();
     }
 }

@@ -140,12 +140,28 @@ internal static class PairPage
             html.Close("ul");
         }
 
+        if (WindowEndText(latest) is { } ended)
+        {
+            html.Element("p", ended, ("class", "muted window-end"));
+        }
+
         if (latest.JudgedAgainst is { } judged)
         {
             html.Element("p", JudgedAgainstText(latest, judged), ("class", "muted judged-against"));
         }
 
         html.Close("section");
+    }
+
+    /// <summary>Where the run's window ended (the check time, or the newest load with anchor latest), and whether the run is back-dated.</summary>
+    internal static string? WindowEndText(Core.History.RunRecord run)
+    {
+        ArgumentNullException.ThrowIfNull(run);
+        var ended = run.WindowEnd is { } end ? $"Window ended at {Display.TimeWithSeconds(end)}." : null;
+        var backDated = run.BackDatedAt is { } made
+            ? $"Back-dated run: checked on {Display.TimeWithSeconds(made)} as of {Display.TimeWithSeconds(run.StartedAt)}; it never raises or mails an alert."
+            : null;
+        return ended is null && backDated is null ? null : string.Join(" ", new[] { ended, backDated }.Where(t => t is not null));
     }
 
     /// <summary>The baseline this run was compared with, as recorded with the run, and the window's exact row count.</summary>

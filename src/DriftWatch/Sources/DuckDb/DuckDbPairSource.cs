@@ -61,7 +61,7 @@ internal sealed class DuckDbPairSource : IPairSource, IDisposable
         ArgumentNullException.ThrowIfNull(pair);
         return InSessionAsync(pair, (session, target, from) =>
         {
-            var sql = CheckColumns(session, pair, target, now, now);
+            var (sql, windowEnd) = CheckColumns(session, pair, target, now);
             var figures = ReadFigures(session, sql);
             var isTable = target.IsTable || DuckDbTarget.IsFile(pair.Table);
             // A reservoir over the window is one pass whatever the table's size, so auto never needs table sampling.
@@ -77,7 +77,7 @@ internal sealed class DuckDbPairSource : IPairSource, IDisposable
             }
 
             var sample = builder.Build();
-            return new SampledPair(sample, figures, Describe(plan, pair.Sample, sample));
+            return new SampledPair(sample, figures, Describe(plan, pair.Sample, sample)) { WindowEnd = windowEnd };
         }, cancellationToken);
     }
 
@@ -89,7 +89,7 @@ internal sealed class DuckDbPairSource : IPairSource, IDisposable
         var line = LineDistance.For(intercept, slope);
         return InSessionAsync(pair, (session, target, from) =>
         {
-            var sql = CheckColumns(session, pair, target, now, now);
+            var (sql, _) = CheckColumns(session, pair, target, now);
             var (text, parameters) = sql.Farthest(line, count);
             using var command = session.Command(text, parameters);
             using var reader = command.ExecuteReader();
@@ -109,8 +109,18 @@ internal sealed class DuckDbPairSource : IPairSource, IDisposable
         ArgumentNullException.ThrowIfNull(pair);
         return InSessionAsync(pair, (session, target, from) =>
         {
-            CheckColumns(session, pair, target, null, null);
+            CheckColumns(session, pair, target, null);
             return true;
+        }, cancellationToken);
+    }
+
+    public Task<DateTimeOffset?> LatestAsync(PairConfig pair, DateTimeOffset at, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(pair);
+        return InSessionAsync(pair, (session, target, from) =>
+        {
+            CheckColumns(session, pair, target, null);
+            return pair.Window is null ? null : ReadLatest(session, new DuckDbPairSql(target, session.From, null), at);
         }, cancellationToken);
     }
 
@@ -190,9 +200,10 @@ internal sealed class DuckDbPairSource : IPairSource, IDisposable
         }
     }
 
-    private static DuckDbPairSql CheckColumns(Session session, PairConfig pair, PairTarget target, DateTimeOffset? now, DateTimeOffset? to)
+    /// <summary>Checks the columns' types; the SQL over the window of a check at <paramref name="at"/> (none when null) and where that window ends.</summary>
+    private static (DuckDbPairSql Sql, DateTimeOffset? WindowEnd) CheckColumns(Session session, PairConfig pair, PairTarget target, DateTimeOffset? at)
     {
-        var probe = new DuckDbPairSql(target, session.From, null, null).Probe();
+        var probe = new DuckDbPairSql(target, session.From, null).Probe();
         session.RequireSingleSelect(probe);
         var types = new List<string>();
         using (var command = session.Command("DESCRIBE " + probe, new NamedParameters('$')))
@@ -218,8 +229,26 @@ internal sealed class DuckDbPairSource : IPairSource, IDisposable
             }
         }
 
-        var windowFrom = pair.Window is null || now is null ? (DateTimeOffset?)null : now.Value - pair.Window.Last;
-        return new DuckDbPairSql(target, session.From, windowFrom, to);
+        WindowRange? range = null;
+        DateTimeOffset? end = null;
+        if (pair.Window is { } window && at is { } t)
+        {
+            end = window.Anchor == WindowAnchor.Latest ? ReadLatest(session, new DuckDbPairSql(target, session.From, null), t) : t;
+            // No value at or before t: the window ending at t is just as empty, and the run says so (unmeasurable).
+            range = end is { } newest && window.Anchor == WindowAnchor.Latest ? WindowRange.Through(window, newest) : WindowRange.EndingAt(window, t);
+        }
+
+        return (new DuckDbPairSql(target, session.From, range), end);
+    }
+
+    private static DateTimeOffset? ReadLatest(Session session, DuckDbPairSql sql, DateTimeOffset at)
+    {
+        var (text, parameters) = sql.Latest(at);
+        using var command = session.Command(text, parameters);
+        using var reader = command.ExecuteReader();
+        return reader.Read() && !reader.IsDBNull(0)
+            ? new DateTimeOffset(DateTime.SpecifyKind(reader.GetDateTime(0), DateTimeKind.Utc))
+            : null;
     }
 
     /// <summary>

@@ -7,7 +7,7 @@ namespace DriftWatch.Sources.DuckDb;
 /// numeric; a row is usable when both values are finite (<c>isfinite</c> is false for NaN and ±Infinity and
 /// null for NULL). <paramref name="from"/> is the FROM item: a quoted table, a file scan or a query.
 /// </summary>
-internal sealed class DuckDbPairSql(PairTarget target, string from, DateTimeOffset? windowFrom, DateTimeOffset? windowTo)
+internal sealed class DuckDbPairSql(PairTarget target, string from, WindowRange? window)
 {
     /// <summary>The columns (and the window column), filtered, without rows: resolves names and the filter. Parse-checked as one SELECT.</summary>
     public string Probe()
@@ -15,6 +15,14 @@ internal sealed class DuckDbPairSql(PairTarget target, string from, DateTimeOffs
         var window = target.WindowColumn is null ? string.Empty : ", " + target.WindowColumn;
         var filter = target.Where is null ? string.Empty : $" WHERE ({target.Where})";
         return $"SELECT {target.X}, {target.Y}{window} FROM {from}{filter} LIMIT 0";
+    }
+
+    /// <summary>The newest value of the window column at or before <paramref name="at"/> within the filter, as a UTC TIMESTAMP (the session is in UTC); NULL when none.</summary>
+    public (string Sql, NamedParameters Parameters) Latest(DateTimeOffset at)
+    {
+        var p = new NamedParameters('$');
+        var filter = target.Where is null ? string.Empty : $" AND ({target.Where})";
+        return ($"SELECT CAST(max({target.WindowColumn}) AS TIMESTAMP) FROM {from} WHERE {target.WindowColumn} <= {p.Add(at.UtcDateTime)}{filter}", p);
     }
 
     /// <summary>Exact counts and linear figures over the whole window in one scan, with DuckDB's own aggregates.</summary>
@@ -96,9 +104,10 @@ internal sealed class DuckDbPairSql(PairTarget target, string from, DateTimeOffs
     private string Where(NamedParameters p)
     {
         var conditions = new List<string>();
-        if (target.WindowColumn is not null && windowFrom is { } lo && windowTo is { } hi)
+        if (target.WindowColumn is not null && window is not null)
         {
-            conditions.Add($"{target.WindowColumn} >= {p.Add(lo.UtcDateTime)} AND {target.WindowColumn} < {p.Add(hi.UtcDateTime)}");
+            var (lower, upper) = window.Operators;
+            conditions.Add($"{target.WindowColumn} {lower} {p.Add(window.From.UtcDateTime)} AND {target.WindowColumn} {upper} {p.Add(window.To.UtcDateTime)}");
         }
 
         if (target.Where is not null)

@@ -53,7 +53,7 @@ internal sealed class MySqlPairSource : IPairSource, IDisposable
         ArgumentNullException.ThrowIfNull(pair);
         return InSessionAsync(pair, async (session, target, ct) =>
         {
-            var sql = await CheckColumnsAsync(session, pair, target, now, ct);
+            var (sql, windowEnd) = await CheckColumnsAsync(session, pair, target, now, ct);
             var figures = await ReadFiguresAsync(session, sql, ct);
             var plan = SamplePlanner.Choose(pair.Sample, figures.RowCount, tableRows: null, filtered: true);
             var (text, parameters) = sql.Sample(plan, pair.Sample.Rows, figures.RowCount, pair.Sample.Seed);
@@ -66,7 +66,7 @@ internal sealed class MySqlPairSource : IPairSource, IDisposable
             }
 
             var sample = builder.Build();
-            return new SampledPair(sample, figures, Describe(plan, pair.Sample, figures.RowCount, sample));
+            return new SampledPair(sample, figures, Describe(plan, pair.Sample, figures.RowCount, sample)) { WindowEnd = windowEnd };
         }, cancellationToken);
     }
 
@@ -78,7 +78,7 @@ internal sealed class MySqlPairSource : IPairSource, IDisposable
         var line = LineDistance.For(intercept, slope);
         return InSessionAsync(pair, async (session, target, ct) =>
         {
-            var sql = await CheckColumnsAsync(session, pair, target, now, ct);
+            var (sql, _) = await CheckColumnsAsync(session, pair, target, now, ct);
             var (text, parameters) = sql.Farthest(line, count);
             await using var command = session.Command(text, parameters);
             await using var reader = await command.ExecuteReaderAsync(ct);
@@ -100,6 +100,16 @@ internal sealed class MySqlPairSource : IPairSource, IDisposable
         {
             await CheckColumnsAsync(session, pair, target, null, ct);
             return true;
+        }, cancellationToken);
+    }
+
+    public Task<DateTimeOffset?> LatestAsync(PairConfig pair, DateTimeOffset at, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(pair);
+        return InSessionAsync(pair, async (session, target, ct) =>
+        {
+            await CheckColumnsAsync(session, pair, target, null, ct);
+            return pair.Window is null ? null : await ReadLatestAsync(session, new MySqlPairSql(target, null), at, ct);
         }, cancellationToken);
     }
 
@@ -200,9 +210,10 @@ internal sealed class MySqlPairSource : IPairSource, IDisposable
         return !mode.Contains("NO_BACKSLASH_ESCAPES", StringComparison.OrdinalIgnoreCase);
     }
 
-    private static async Task<MySqlPairSql> CheckColumnsAsync(Session session, PairConfig pair, PairTarget target, DateTimeOffset? now, CancellationToken ct)
+    /// <summary>Checks the columns' types; the SQL over the window of a check at <paramref name="at"/> (none when null) and where that window ends.</summary>
+    private static async Task<(MySqlPairSql Sql, DateTimeOffset? WindowEnd)> CheckColumnsAsync(Session session, PairConfig pair, PairTarget target, DateTimeOffset? at, CancellationToken ct)
     {
-        var probe = new MySqlPairSql(target, null, null).Probe();
+        var probe = new MySqlPairSql(target, null).Probe();
         await using (var command = session.Command(probe, new NamedParameters('@')))
         await using (var reader = await command.ExecuteReaderAsync(CommandBehavior.SchemaOnly, ct))
         {
@@ -223,8 +234,26 @@ internal sealed class MySqlPairSource : IPairSource, IDisposable
             }
         }
 
-        var from = pair.Window is null || now is null ? (DateTimeOffset?)null : now.Value - pair.Window.Last;
-        return new MySqlPairSql(target, from, now);
+        WindowRange? range = null;
+        DateTimeOffset? end = null;
+        if (pair.Window is { } window && at is { } t)
+        {
+            end = window.Anchor == WindowAnchor.Latest ? await ReadLatestAsync(session, new MySqlPairSql(target, null), t, ct) : t;
+            // No value at or before t: the window ending at t is just as empty, and the run says so (unmeasurable).
+            range = end is { } newest && window.Anchor == WindowAnchor.Latest ? WindowRange.Through(window, newest) : WindowRange.EndingAt(window, t);
+        }
+
+        return (new MySqlPairSql(target, range), end);
+    }
+
+    private static async Task<DateTimeOffset?> ReadLatestAsync(Session session, MySqlPairSql sql, DateTimeOffset at, CancellationToken ct)
+    {
+        var (text, parameters) = sql.Latest(at);
+        await using var command = session.Command(text, parameters);
+        await using var reader = await command.ExecuteReaderAsync(ct);
+        return await reader.ReadAsync(ct) && !reader.IsDBNull(0)
+            ? new DateTimeOffset(DateTime.SpecifyKind(reader.GetDateTime(0), DateTimeKind.Utc))
+            : null;
     }
 
     /// <summary>The centred two-pass figures; again on rescaled values when a sum overflows DOUBLE (error 1690) or cannot be trusted.</summary>

@@ -8,13 +8,22 @@ namespace DriftWatch.Sources.MySql;
 /// (means first, then centred sums of squares and products), which keeps the precision raw sums lose.
 /// Names arrive backtick-quoted (<see cref="SqlIdentifier.Backtick"/>).
 /// </summary>
-internal sealed class MySqlPairSql(PairTarget target, DateTimeOffset? windowFrom, DateTimeOffset? windowTo)
+internal sealed class MySqlPairSql(PairTarget target, WindowRange? window)
 {
     public string Probe()
     {
         var window = target.WindowColumn is null ? string.Empty : ", " + Column(target.WindowColumn);
         var filter = target.Where is null ? string.Empty : $" WHERE ({target.Where})";
         return $"SELECT {Column(target.X)}, {Column(target.Y)}{window} FROM {From()}{filter} LIMIT 0";
+    }
+
+    /// <summary>The newest value of the window column at or before <paramref name="at"/> within the filter, as DATETIME(6) in the session's UTC; NULL when none.</summary>
+    public (string Sql, NamedParameters Parameters) Latest(DateTimeOffset at)
+    {
+        var p = new NamedParameters('@');
+        var column = Column(target.WindowColumn!);
+        var filter = target.Where is null ? string.Empty : $" AND ({target.Where})";
+        return ($"SELECT CAST(max({column}) AS DATETIME(6)) FROM {From()} WHERE {column} <= {p.Add(at.UtcDateTime)}{filter}", p);
     }
 
     /// <summary>Row counts, means and centred sums; with <paramref name="rescaling"/> on x·2^k − s (see <see cref="Rescaling"/>).</summary>
@@ -101,10 +110,11 @@ internal sealed class MySqlPairSql(PairTarget target, DateTimeOffset? windowFrom
     private string Where(NamedParameters p)
     {
         var conditions = new List<string>();
-        if (target.WindowColumn is not null && windowFrom is { } lo && windowTo is { } hi)
+        if (target.WindowColumn is not null && window is not null)
         {
             var column = Column(target.WindowColumn);
-            conditions.Add($"{column} >= {p.Add(lo.UtcDateTime)} AND {column} < {p.Add(hi.UtcDateTime)}");
+            var (lower, upper) = window.Operators;
+            conditions.Add($"{column} {lower} {p.Add(window.From.UtcDateTime)} AND {column} {upper} {p.Add(window.To.UtcDateTime)}");
         }
 
         if (target.Where is not null)

@@ -51,8 +51,7 @@ internal sealed class PostgresPairSource : IPairSource, IAsyncDisposable
         var target = PairTarget.From(pair);
         return await InSessionAsync(pair, target, async (connection, ct) =>
         {
-            var from = pair.Window is null ? (DateTimeOffset?)null : now - pair.Window.Last;
-            var sql = await CheckColumnsAsync(connection, pair, target, from, now, ct);
+            var (sql, windowEnd) = await CheckColumnsAsync(connection, pair, target, now, ct);
             var figures = await ReadFiguresAsync(connection, sql, ct);
 
             var needsEstimate = target.IsTable && pair.Sample.Method is SampleMethod.Auto or SampleMethod.Tablesample;
@@ -64,7 +63,7 @@ internal sealed class PostgresPairSource : IPairSource, IAsyncDisposable
             }
 
             var sample = await ReadSampleAsync(connection, sql, plan, pair.Sample, ct);
-            return new SampledPair(sample, figures, Describe(plan, pair.Sample, sample));
+            return new SampledPair(sample, figures, Describe(plan, pair.Sample, sample)) { WindowEnd = windowEnd };
         }, cancellationToken);
     }
 
@@ -77,8 +76,7 @@ internal sealed class PostgresPairSource : IPairSource, IAsyncDisposable
         var target = PairTarget.From(pair);
         return await InSessionAsync(pair, target, async (connection, ct) =>
         {
-            var from = pair.Window is null ? (DateTimeOffset?)null : now - pair.Window.Last;
-            var sql = await CheckColumnsAsync(connection, pair, target, from, now, ct);
+            var (sql, _) = await CheckColumnsAsync(connection, pair, target, now, ct);
             var (text, parameters) = sql.Farthest(line, count);
             await using var batch = new NpgsqlBatch(connection);
             batch.BatchCommands.Add(parameters.Command(text));
@@ -100,8 +98,19 @@ internal sealed class PostgresPairSource : IPairSource, IAsyncDisposable
         var target = PairTarget.From(pair);
         await InSessionAsync(pair, target, async (connection, ct) =>
         {
-            await CheckColumnsAsync(connection, pair, target, null, null, ct);
+            await CheckColumnsAsync(connection, pair, target, null, ct);
             return true;
+        }, cancellationToken);
+    }
+
+    public async Task<DateTimeOffset?> LatestAsync(PairConfig pair, DateTimeOffset at, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(pair);
+        var target = PairTarget.From(pair);
+        return await InSessionAsync(pair, target, async (connection, ct) =>
+        {
+            await CheckColumnsAsync(connection, pair, target, null, ct);
+            return pair.Window is null ? null : await ReadLatestAsync(connection, new PostgresPairSql(target, null), at, ct);
         }, cancellationToken);
     }
 
@@ -159,11 +168,14 @@ internal sealed class PostgresPairSource : IPairSource, IAsyncDisposable
         }
     }
 
-    /// <summary>Checks the columns' types and returns the SQL for them (numeric columns get the range guard).</summary>
-    private static async Task<PostgresPairSql> CheckColumnsAsync(
-        NpgsqlConnection connection, PairConfig pair, PairTarget target, DateTimeOffset? from, DateTimeOffset? to, CancellationToken ct)
+    /// <summary>
+    /// Checks the columns' types and returns the SQL for them (numeric columns get the range guard), over the window
+    /// of a check at <paramref name="at"/> (none when null), and where that window ends (see <see cref="WindowRange"/>).
+    /// </summary>
+    private static async Task<(PostgresPairSql Sql, DateTimeOffset? WindowEnd)> CheckColumnsAsync(
+        NpgsqlConnection connection, PairConfig pair, PairTarget target, DateTimeOffset? at, CancellationToken ct)
     {
-        var (text, parameters) = new PostgresPairSql(target, from, to).Probe();
+        var (text, parameters) = new PostgresPairSql(target, null).Probe();
         await using var batch = new NpgsqlBatch(connection);
         batch.BatchCommands.Add(parameters.Command(text));
         await using var reader = await batch.ExecuteReaderAsync(CommandBehavior.SchemaOnly, ct);
@@ -190,7 +202,28 @@ internal sealed class PostgresPairSource : IPairSource, IAsyncDisposable
             }
         }
 
-        return new PostgresPairSql(target, from, to, numeric[0], numeric[1]);
+        await reader.DisposeAsync();
+        WindowRange? range = null;
+        DateTimeOffset? end = null;
+        if (pair.Window is { } window && at is { } t)
+        {
+            end = window.Anchor == WindowAnchor.Latest ? await ReadLatestAsync(connection, new PostgresPairSql(target, null), t, ct) : t;
+            // No value at or before t: the window ending at t is just as empty, and the run says so (unmeasurable).
+            range = end is { } newest && window.Anchor == WindowAnchor.Latest ? WindowRange.Through(window, newest) : WindowRange.EndingAt(window, t);
+        }
+
+        return (new PostgresPairSql(target, range, numeric[0], numeric[1]), end);
+    }
+
+    private static async Task<DateTimeOffset?> ReadLatestAsync(NpgsqlConnection connection, PostgresPairSql sql, DateTimeOffset at, CancellationToken ct)
+    {
+        var (text, parameters) = sql.Latest(at);
+        await using var batch = new NpgsqlBatch(connection);
+        batch.BatchCommands.Add(parameters.Command(text));
+        await using var reader = await batch.ExecuteReaderAsync(ct);
+        return await reader.ReadAsync(ct) && !reader.IsDBNull(0)
+            ? new DateTimeOffset(DateTime.SpecifyKind(reader.GetFieldValue<DateTime>(0), DateTimeKind.Utc))
+            : null;
     }
 
     /// <summary>

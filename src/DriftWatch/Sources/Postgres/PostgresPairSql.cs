@@ -11,7 +11,7 @@ namespace DriftWatch.Sources.Postgres;
 /// subnormal is read as 0 (its own rounding). Set <paramref name="numericX"/>/<paramref name="numericY"/>
 /// from the column types (<see cref="Probe"/>), since the guard costs a numeric comparison per value.
 /// </summary>
-internal sealed class PostgresPairSql(PairTarget target, DateTimeOffset? windowFrom, DateTimeOffset? windowTo, bool numericX = false, bool numericY = false)
+internal sealed class PostgresPairSql(PairTarget target, WindowRange? window, bool numericX = false, bool numericY = false)
 {
     // Above float8's largest value (1.7976931348623157e308) but below the point where the cast rounds to
     // infinity and fails; below the smallest subnormal (4.9e-324) the cast fails on underflow.
@@ -27,6 +27,18 @@ internal sealed class PostgresPairSql(PairTarget target, DateTimeOffset? windowF
         var p = new PositionalParameters();
         var window = target.WindowColumn is null ? string.Empty : ", " + Column(target.WindowColumn);
         return ($"SELECT {Column(target.X)}, {Column(target.Y)}{window} FROM {From()}{Where(p, withWindow: false)} LIMIT 0", p);
+    }
+
+    /// <summary>
+    /// The newest value of the window column at or before <paramref name="at"/> within the pair's filter, as
+    /// timestamptz (the session is in UTC, so a timestamp without time zone or a date is read as UTC); NULL when none.
+    /// </summary>
+    public (string Sql, PositionalParameters Parameters) Latest(DateTimeOffset at)
+    {
+        var p = new PositionalParameters();
+        var column = Column(target.WindowColumn!);
+        var filter = target.Where is null ? string.Empty : $" AND ({target.Where})";
+        return ($"SELECT max({column})::timestamptz FROM {From()} WHERE {column} <= {p.Add(at.UtcDateTime, NpgsqlDbType.TimestampTz)}{filter}", p);
     }
 
     /// <summary>
@@ -139,10 +151,11 @@ internal sealed class PostgresPairSql(PairTarget target, DateTimeOffset? windowF
     private string Where(PositionalParameters p, bool withWindow = true)
     {
         var conditions = new List<string>();
-        if (withWindow && target.WindowColumn is not null && windowFrom is { } from && windowTo is { } to)
+        if (withWindow && target.WindowColumn is not null && window is not null)
         {
             var column = Column(target.WindowColumn);
-            conditions.Add($"{column} >= {p.Add(from.UtcDateTime, NpgsqlDbType.TimestampTz)} AND {column} < {p.Add(to.UtcDateTime, NpgsqlDbType.TimestampTz)}");
+            var (lower, upper) = window.Operators;
+            conditions.Add($"{column} {lower} {p.Add(window.From.UtcDateTime, NpgsqlDbType.TimestampTz)} AND {column} {upper} {p.Add(window.To.UtcDateTime, NpgsqlDbType.TimestampTz)}");
         }
 
         if (target.Where is not null)

@@ -45,18 +45,21 @@ internal sealed class SqlitePairSource : IPairSource, IDisposable
         return InSessionAsync(pair, target, session =>
         {
             CheckColumns(session, pair, target);
-            var window = pair.Window is null ? null : ResolveWindow(session, target, now - pair.Window.Last, now);
+            var window = pair.Window is null ? null : ResolveWindow(session, target, pair.Window, now);
             if (pair.Window is not null && window is null)
             {
                 // No row has a time at all: the window is empty.
-                return new SampledPair(PairedSample.Empty, new SourceFigures(0, 0, 0, null, null, null, null, null, null, null), "all 0");
+                return new SampledPair(PairedSample.Empty, new SourceFigures(0, 0, 0, null, null, null, null, null, null, null), "all 0")
+                {
+                    WindowEnd = pair.Window.Anchor == WindowAnchor.Now ? now : null,
+                };
             }
 
-            var sql = new SqlitePairSql(target, window is not null);
+            var sql = new SqlitePairSql(target, window is not null, window?.EndInclusive ?? false);
             var figures = ReadFigures(session, sql, window);
             var plan = SamplePlanner.Choose(pair.Sample, figures.RowCount, tableRows: null, filtered: true);
             var (sample, method) = ReadSample(session, sql, window, plan, pair, target);
-            return new SampledPair(sample, figures, method);
+            return new SampledPair(sample, figures, method) { WindowEnd = window?.End };
         }, cancellationToken);
     }
 
@@ -70,14 +73,14 @@ internal sealed class SqlitePairSource : IPairSource, IDisposable
         return InSessionAsync(pair, target, session =>
         {
             CheckColumns(session, pair, target);
-            var window = pair.Window is null ? null : ResolveWindow(session, target, now - pair.Window.Last, now);
+            var window = pair.Window is null ? null : ResolveWindow(session, target, pair.Window, now);
             var rows = new List<DrivingRow>(count);
             if (pair.Window is not null && window is null)
             {
                 return (IReadOnlyList<DrivingRow>)rows;
             }
 
-            using var command = session.Command(new SqlitePairSql(target, window is not null).Farthest(), checkSingle: true);
+            using var command = session.Command(new SqlitePairSql(target, window is not null, window?.EndInclusive ?? false).Farthest(), checkSingle: true);
             Bind(command, window, null);
             command.Parameters.AddWithValue("@f", line.Factor);
             command.Parameters.AddWithValue("@a", line.ScaledIntercept);
@@ -197,16 +200,47 @@ internal sealed class SqlitePairSource : IPairSource, IDisposable
         using var probeReader = probe.ExecuteReader();
     }
 
-    private static SqliteWindow? ResolveWindow(Session session, PairTarget target, DateTimeOffset from, DateTimeOffset to)
+    public Task<DateTimeOffset?> LatestAsync(PairConfig pair, DateTimeOffset at, CancellationToken cancellationToken)
     {
-        using var command = session.Command(new SqlitePairSql(target, windowed: false).WindowProbe(), checkSingle: true);
-        using var reader = command.ExecuteReader();
-        if (!reader.Read())
+        ArgumentNullException.ThrowIfNull(pair);
+        var target = PairTarget.From(pair);
+        return InSessionAsync(pair, target, session =>
         {
-            return null;
+            CheckColumns(session, pair, target);
+            return pair.Window is null ? null : ResolveWindow(session, target, pair.Window with { Anchor = WindowAnchor.Latest }, at)?.End;
+        }, cancellationToken);
+    }
+
+    /// <summary>
+    /// The window of a check at <paramref name="at"/> in the column's own form; null when no row has a time at all.
+    /// Anchor latest without a value at or before <paramref name="at"/> gives the window ending at it (just as empty), with no end.
+    /// </summary>
+    private static SqliteWindow? ResolveWindow(Session session, PairTarget target, WindowSpec spec, DateTimeOffset at)
+    {
+        string storageClass;
+        string? first;
+        using (var command = session.Command(new SqlitePairSql(target, windowed: false).WindowProbe(), checkSingle: true))
+        using (var reader = command.ExecuteReader())
+        {
+            if (!reader.Read())
+            {
+                return null;
+            }
+
+            storageClass = reader.GetString(0);
+            first = reader.IsDBNull(1) ? null : reader.GetString(1);
         }
 
-        return SqliteWindow.For(reader.GetString(0), reader.IsDBNull(1) ? null : reader.GetString(1), from, to);
+        var ending = SqliteWindow.For(storageClass, first, at - spec.Last, at);
+        if (spec.Anchor == WindowAnchor.Now)
+        {
+            return ending;
+        }
+
+        using var latest = session.Command(new SqlitePairSql(target, windowed: false).Latest(), checkSingle: true);
+        latest.Parameters.AddWithValue("@at", ending.To);
+        var newest = latest.ExecuteScalar();
+        return newest is null or DBNull ? ending with { End = null } : SqliteWindow.Through(storageClass, first, newest, spec.Last);
     }
 
     /// <summary>

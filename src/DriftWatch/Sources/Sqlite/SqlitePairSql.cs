@@ -1,11 +1,12 @@
 namespace DriftWatch.Sources.Sqlite;
 
 /// <summary>
-/// The SQL of one SQLite pair's check. Parameters: @from, @to (window), @rows.
+/// The SQL of one SQLite pair's check. Parameters: @from, @to (window: [@from, @to), or (@from, @to] with
+/// <paramref name="endInclusive"/>), @rows.
 /// Usable means both values are stored as numbers and finite (SQLite stores NaN as NULL but keeps ±Inf,
 /// which it writes as 9e999; text always compares greater than numbers, so the range test also drops text).
 /// </summary>
-internal sealed class SqlitePairSql(PairTarget target, bool windowed)
+internal sealed class SqlitePairSql(PairTarget target, bool windowed, bool endInclusive = false)
 {
     private const string Usable =
         "(typeof(x) IN ('integer', 'real') AND typeof(y) IN ('integer', 'real') AND x > -9e999 AND x < 9e999 AND y > -9e999 AND y < 9e999)";
@@ -23,6 +24,14 @@ internal sealed class SqlitePairSql(PairTarget target, bool windowed)
         var column = Column(target.WindowColumn!);
         var filter = target.Where is null ? string.Empty : $" AND ({target.Where})";
         return $"SELECT typeof({column}), CAST({column} AS TEXT) FROM {From()} WHERE {column} IS NOT NULL{filter} LIMIT 1";
+    }
+
+    /// <summary>The newest value of the window column at or before @at (in the column's own form) within the filter; NULL when none.</summary>
+    public string Latest()
+    {
+        var column = Column(target.WindowColumn!);
+        var filter = target.Where is null ? string.Empty : $" AND ({target.Where})";
+        return $"SELECT max({column}) FROM {From()} WHERE {column} IS NOT NULL AND {column} <= @at{filter}";
     }
 
     /// <summary>
@@ -71,7 +80,7 @@ internal sealed class SqlitePairSql(PairTarget target, bool windowed)
         if (windowed && target.WindowColumn is not null)
         {
             var column = Column(target.WindowColumn);
-            conditions.Add($"{column} >= @from AND {column} < @to");
+            conditions.Add(endInclusive ? $"{column} > @from AND {column} <= @to" : $"{column} >= @from AND {column} < @to");
         }
 
         if (target.Where is not null)

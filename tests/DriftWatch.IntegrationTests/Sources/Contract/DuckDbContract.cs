@@ -65,8 +65,8 @@ public abstract class DuckDbContract : SourceContract
 
     private protected override IPairSource CreateUnreachableSource() => Create($"Data Source={Path.Combine(Directory, "missing.duckdb")}", null);
 
-    protected override Task<double?[]> EngineFiguresAsync() =>
-        Task.FromResult(OracleRow($"SELECT corr(y, x), regr_slope(y, x), avg(x), var_samp(y) FROM {OracleFrom("readings")}"));
+    protected override Task<double?[]> EngineFiguresAsync(string condition) =>
+        Task.FromResult(OracleRow($"SELECT corr(y, x), regr_slope(y, x), avg(x), var_samp(y) FROM {OracleFrom("readings")} WHERE {condition}"));
 
     protected override Task<List<(double X, double Y)>> FiniteRowsAsync(string logical)
     {

@@ -54,9 +54,9 @@ public sealed class MariaDbContractTests(MariaDbServer server) : SourceContract
 
     protected override string TableName(string logical) => logical;
 
-    protected override async Task<double?[]> EngineFiguresAsync()
+    protected override async Task<double?[]> EngineFiguresAsync(string condition)
     {
-        var row = await RowAsync("SELECT AVG(x), VAR_SAMP(y) FROM readings");
+        var row = await RowAsync($"SELECT AVG(x), VAR_SAMP(y) FROM readings WHERE {condition}");
         return [null, null, row[0], row[1]];
     }
 

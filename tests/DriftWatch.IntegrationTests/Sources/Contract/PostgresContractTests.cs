@@ -55,8 +55,8 @@ public sealed class PostgresContractTests(PostgresServer server) : SourceContrac
 
     protected override string TableName(string logical) => logical;
 
-    protected override async Task<double?[]> EngineFiguresAsync() =>
-        (await _db.RowsAsync("SELECT corr(y, x), regr_slope(y, x), avg(x), var_samp(y) FROM readings"))[0];
+    protected override async Task<double?[]> EngineFiguresAsync(string condition) =>
+        (await _db.RowsAsync($"SELECT corr(y, x), regr_slope(y, x), avg(x), var_samp(y) FROM readings WHERE {condition}"))[0];
 
     protected override async Task<List<(double X, double Y)>> FiniteRowsAsync(string logical) =>
         [.. (await _db.RowsAsync($"SELECT x, y FROM {logical} WHERE x IS NOT NULL AND y IS NOT NULL ORDER BY x")).Select(r => (r[0]!.Value, r[1]!.Value)).Where(r => double.IsFinite(r.Item1) && double.IsFinite(r.Item2))];

@@ -38,8 +38,13 @@ public abstract class SourceContract : IAsyncLifetime
     /// <summary>The name a pair's <c>table</c> uses for a logical table (a file glob for Parquet).</summary>
     protected abstract string TableName(string logical);
 
-    /// <summary>The engine's own figures over <c>readings</c>: r, slope, mean of x, sample variance of y (null where the engine lacks one).</summary>
-    protected abstract Task<double?[]> EngineFiguresAsync();
+    /// <summary>
+    /// The engine's own figures over the rows of <c>readings</c> a plain SQL <paramref name="condition"/> on x selects:
+    /// r, slope, mean of x, sample variance of y (null where the engine lacks one).
+    /// </summary>
+    protected abstract Task<double?[]> EngineFiguresAsync(string condition);
+
+    private Task<double?[]> EngineFiguresAsync() => EngineFiguresAsync("x > 0");
 
     /// <summary>Every (x, y) of a logical table with both values finite, read from the engine.</summary>
     protected abstract Task<List<(double X, double Y)>> FiniteRowsAsync(string logical);
@@ -141,6 +146,111 @@ public abstract class SourceContract : IAsyncLifetime
             {
                 Assert.Equal(1.0, ours[i]!.Value / expected, 12);
             }
+        }
+    }
+
+    /// <summary>The figures over a window against the engine's own aggregates and MathNet over the rows x in [<paramref name="low"/>, <paramref name="high"/>].</summary>
+    private async Task AssertFiguresOfRowsAsync(Core.History.SourceFigures figures, int low, int high)
+    {
+        Assert.Equal(high - low + 1, figures.RowCount);
+        Assert.Equal(high - low + 1, figures.UsedCount);
+        var engine = await EngineFiguresAsync(FormattableString.Invariant($"x >= {low} AND x <= {high}"));
+        double?[] ours = [figures.PearsonR, figures.Slope, figures.XMean, figures.YVariance];
+        for (var i = 0; i < engine.Length; i++)
+        {
+            if (engine[i] is { } expected)
+            {
+                Assert.Equal(1.0, ours[i]!.Value / expected, 12);
+            }
+        }
+
+        // Reference library: MathNet.Numerics over the same rows read from the engine.
+        var rows = (await FiniteRowsAsync("readings")).Where(r => r.X >= low && r.X <= high).ToList();
+        double[] x = [.. rows.Select(r => r.X)], y = [.. rows.Select(r => r.Y)];
+        Assert.Equal(Correlation.Pearson(x, y), figures.PearsonR!.Value, 10);
+        Assert.Equal(Fit.Line(x, y).B, figures.Slope!.Value, 10);
+    }
+
+    /// <summary>Row i's time by the generating formula: 2026-03-01 00:00 UTC + i s.</summary>
+    private static DateTimeOffset TimeOfRow(int i) => new DateTimeOffset(2026, 3, 1, 0, 0, 0, TimeSpan.Zero).AddSeconds(i);
+
+    [Fact]
+    public async Task AnchorLatest_EndsTheWindowAtTheNewestValueWithinTheFilter_BeforeTheCheckTime()
+    {
+        // Newest ts at or before 03:00 with x < 9000 is row 8999 (02:29:59); the window (01:29:59, 02:29:59] holds
+        // rows 5400..8999: row 5399, exactly one hour before the newest, is out; row 8999 itself is in.
+        var pair = Pair(window: new WindowSpec("ts", TimeSpan.FromHours(1), WindowAnchor.Latest), where: "x < 9000", sample: new SampleSpec { Method = SampleMethod.All });
+
+        var latest = await UseAsync(CreateSource(), s => s.LatestAsync(pair, Now, CancellationToken.None));
+        var result = await SampleAsync(pair);
+
+        Assert.Equal(TimeOfRow(8999), latest);
+        Assert.Equal(TimeOfRow(8999), result.WindowEnd);
+        Assert.Equal(5400, result.Sample.X.Min());
+        Assert.Equal(8999, result.Sample.X.Max());
+        AssertRealRows(result.Sample, 5400, 8999);
+        await AssertFiguresOfRowsAsync(result.Figures!, 5400, 8999);
+    }
+
+    [Fact]
+    public async Task AnchorLatest_FarthestRows_ComeFromTheSameWindow()
+    {
+        var pair = Pair(window: new WindowSpec("ts", TimeSpan.FromHours(1), WindowAnchor.Latest), where: "x < 9000");
+        // Against y = 2.999x the residual of row i is 0.001·i + (i mod 7): plain arithmetic over rows 5400..8999.
+        var expected = Enumerable.Range(5400, 3600).Select(i => (X: (double)i, R: (3.0 * i) + (i % 7) - (2.999 * i))).OrderByDescending(t => t.R).Take(3).ToList();
+
+        var rows = await UseAsync(CreateSource(), s => s.FarthestFromLineAsync(pair, Now, 0, 2.999, 3, CancellationToken.None));
+
+        Assert.Equal(expected.Select(e => e.X), rows.Select(r => r.X));
+    }
+
+    [Fact]
+    public async Task AsOf_AnchorNow_WindowEndsAtTheAsOfTime_RowsLoadedLaterAreOut()
+    {
+        // As of 01:00 with last 30m: [00:30, 01:00) holds rows 1800..3599; rows after 01:00 (up to 20 000) are out.
+        var asOf = new DateTimeOffset(2026, 3, 1, 1, 0, 0, TimeSpan.Zero);
+        var pair = Pair(window: new WindowSpec("ts", TimeSpan.FromMinutes(30)), sample: new SampleSpec { Method = SampleMethod.All });
+
+        var result = await UseAsync(CreateSource(), s => s.SampleAsync(pair, asOf, CancellationToken.None));
+
+        Assert.Equal(asOf, result.WindowEnd);
+        Assert.Equal(1800, result.Sample.X.Min());
+        Assert.Equal(3599, result.Sample.X.Max());
+        await AssertFiguresOfRowsAsync(result.Figures!, 1800, 3599);
+    }
+
+    [Fact]
+    public async Task AsOf_AnchorLatest_TakesTheNewestValueAtOrBeforeTheAsOfTime()
+    {
+        // Row 3600 is stamped exactly 01:00: at or before the as-of time, so it is the newest and in; (00:30, 01:00] is rows 1801..3600.
+        var asOf = new DateTimeOffset(2026, 3, 1, 1, 0, 0, TimeSpan.Zero);
+        var pair = Pair(window: new WindowSpec("ts", TimeSpan.FromMinutes(30), WindowAnchor.Latest), sample: new SampleSpec { Method = SampleMethod.All });
+
+        var result = await UseAsync(CreateSource(), s => s.SampleAsync(pair, asOf, CancellationToken.None));
+
+        Assert.Equal(TimeOfRow(3600), result.WindowEnd);
+        Assert.Equal(1801, result.Sample.X.Min());
+        Assert.Equal(3600, result.Sample.X.Max());
+        await AssertFiguresOfRowsAsync(result.Figures!, 1801, 3600);
+    }
+
+    [Fact]
+    public async Task AnchorLatest_WithNothingToRead_IsAnEmptyWindowWithoutAnEnd()
+    {
+        var nothing = Pair(window: new WindowSpec("ts", TimeSpan.FromHours(1), WindowAnchor.Latest), where: "x < 0");
+        var beforeAnyRow = new DateTimeOffset(2026, 2, 28, 0, 0, 0, TimeSpan.Zero);
+        var all = Pair(window: new WindowSpec("ts", TimeSpan.FromHours(1), WindowAnchor.Latest));
+
+        var filtered = await SampleAsync(nothing);
+        var early = await UseAsync(CreateSource(), s => s.SampleAsync(all, beforeAnyRow, CancellationToken.None));
+
+        Assert.Null(await UseAsync(CreateSource(), s => s.LatestAsync(nothing, Now, CancellationToken.None)));
+        Assert.Null(await UseAsync(CreateSource(), s => s.LatestAsync(all, beforeAnyRow, CancellationToken.None)));
+        foreach (var result in new[] { filtered, early })
+        {
+            Assert.Null(result.WindowEnd);
+            Assert.Equal(0, result.Figures!.RowCount);
+            Assert.Equal(0, result.Sample.RowCount);
         }
     }
 

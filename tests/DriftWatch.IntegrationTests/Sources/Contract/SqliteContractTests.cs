@@ -47,8 +47,8 @@ public sealed class SqliteContractTests : SourceContract, IDisposable
 
     protected override string TableName(string logical) => logical;
 
-    protected override Task<double?[]> EngineFiguresAsync() =>
-        Task.FromResult<double?[]>([null, null, _file.Scalar<double>("SELECT avg(x) FROM readings"), null]);
+    protected override Task<double?[]> EngineFiguresAsync(string condition) =>
+        Task.FromResult<double?[]>([null, null, _file.Scalar<double>($"SELECT avg(x) FROM readings WHERE {condition}"), null]);
 
     protected override Task<List<(double X, double Y)>> FiniteRowsAsync(string logical)
     {
