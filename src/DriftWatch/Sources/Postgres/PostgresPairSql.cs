@@ -117,7 +117,7 @@ internal sealed class PostgresPairSql(PairTarget target, DateTimeOffset? windowF
     private string Values(PositionalParameters p, string? tablesample) =>
         $"SELECT {Float8(Column(target.X), numericX)} AS x, {Float8(Column(target.Y), numericY)} AS y FROM {From()}{tablesample}{Where(p)}";
 
-    private static string Float8(string column, bool numeric) => numeric
+    internal static string Float8(string column, bool numeric) => numeric
         ? $"""
           CASE WHEN {column} IS NULL THEN NULL
                WHEN {column} = 'NaN'::numeric THEN 'NaN'::float8
