@@ -24,7 +24,7 @@ internal static class DiscoverCommand
         var config = ConfigOption.Create();
         var source = new Option<string>("--source", "-s") { Description = "The source (a name under sources: in the configuration) that holds the table.", HelpName = "NAME", Required = true };
         var table = new Option<string>("--table", "-t") { Description = "The table or view to survey: name or schema.name.", HelpName = "TABLE", Required = true };
-        var minR = CommonOptions.Number("--min-r", 0, 1.0000001,
+        var minR = CommonOptions.Number("--min-r", 0, 1,
             $"Propose pairs whose |r| over the whole table is at least this (default {Invariant(TableDiscovery.DefaultMinR)}).", "R");
         var maxColumns = new Option<int>("--max-columns")
         {
@@ -61,21 +61,20 @@ internal static class DiscoverCommand
         {
             config, source, table, minR, maxColumns, sample, write, format,
         };
-        command.Validators.Add(result =>
-        {
-            if (result.GetValue(maxColumns) < 2)
-            {
-                result.AddError($"--max-columns must be at least 2, was {result.GetValue(maxColumns)}");
-            }
-
-            if (result.GetValue(sample) is < MinSampleRows or > MaxSampleRows)
-            {
-                result.AddError($"--sample must be between {MinSampleRows} and {MaxSampleRows}, was {result.GetValue(sample)}");
-            }
-        });
-
         command.SetAction(async (parse, ct) =>
         {
+            var maxCols = parse.GetValue(maxColumns);
+            var sampleRows = parse.GetValue(sample);
+            if (maxCols < 2)
+            {
+                throw new CliUsageException($"--max-columns must be at least 2, was {maxCols}");
+            }
+
+            if (sampleRows is < MinSampleRows or > MaxSampleRows)
+            {
+                throw new CliUsageException($"--sample must be between {MinSampleRows} and {MaxSampleRows}, was {sampleRows}");
+            }
+
             var loaded = ConfigOption.Load(parse.GetValue(config), console);
             if (loaded is null)
             {
@@ -102,11 +101,10 @@ internal static class DiscoverCommand
             }
 
             var progress = new ImmediateProgress<string>(line => console.Error.WriteLine("discover: " + line));
-            var maxCols = parse.GetValue(maxColumns);
             TableSurvey surveyed;
             try
             {
-                surveyed = await survey.SurveyAsync(new SurveyRequest(parse.GetValue(table)!, maxCols, parse.GetValue(sample)), progress, ct);
+                surveyed = await survey.SurveyAsync(new SurveyRequest(parse.GetValue(table)!, maxCols, sampleRows), progress, ct);
             }
             catch (SourceException e) when (e.Failure is SourceFailure.MissingTable or SourceFailure.NonNumericColumn)
             {
@@ -140,16 +138,14 @@ internal static class DiscoverCommand
             var result = TableDiscovery.Assess(surveyed.Matrix, surveyed.Sample, parse.GetValue(minR) ?? TableDiscovery.DefaultMinR, Core.Statistics.Thresholds.Default, profiling);
 
             var taken = new HashSet<string>(loaded.Pairs.Select(p => p.Name), StringComparer.Ordinal);
-            if (target is not null)
-            {
-                taken.UnionWith(DiscoverFile.NamesIn(target));
-            }
 
             var tableText = surveyed.Table.ToString();
             var outputFormat = parse.GetValue(format);
             if (target is not null)
             {
-                var block = DiscoverYaml.Block(sourceConfig.Name, tableText, result, new HashSet<string>(taken, StringComparer.Ordinal), header: !DiscoverFile.HasPairsKey(target));
+                // A second run over the same table proposes the same names: those already in the file are not appended again.
+                var written = DiscoverFile.NamesIn(target).ToHashSet(StringComparer.Ordinal);
+                var block = DiscoverYaml.Block(sourceConfig.Name, tableText, result, new HashSet<string>(taken.Union(written), StringComparer.Ordinal), header: !DiscoverFile.HasPairsKey(target), written);
                 DiscoverFile.Append(target, block);
                 console.WriteNote($"appended the proposed entries to {target}; paste them under pairs: in {loaded.FilePath ?? "your configuration"}, then run driftwatch validate");
             }

@@ -18,7 +18,8 @@ internal static class DiscoverYaml
 
     /// <param name="taken">Pair names already in use; the proposed names are added.</param>
     /// <param name="header">Start with the <c>pairs:</c> key (a new file, or standard output); without it, entries only (appending).</param>
-    public static string Block(string source, string table, DiscoveryResult result, ISet<string> taken, bool header)
+    /// <param name="alreadyWritten">Names an earlier run wrote to the same file: such a proposal is named in a comment, not repeated.</param>
+    public static string Block(string source, string table, DiscoveryResult result, ISet<string> taken, bool header, IReadOnlySet<string>? alreadyWritten = null)
     {
         ArgumentNullException.ThrowIfNull(result);
         ArgumentNullException.ThrowIfNull(taken);
@@ -48,13 +49,13 @@ internal static class DiscoverYaml
 
             var what = d.Kind == DerivationKind.Copy ? "a copy" : "a derived column";
             text.Append(CultureInfo.InvariantCulture, $"{Indent}# {d.Equation} on every row: {what} ({figures}). Declared exact: it alerts when the derivation breaks.\n");
-            entries += Entry(text, source, table, d.From, d.Column, exact: true, taken);
+            entries += Entry(text, source, table, d.From, d.Column, exact: true, taken, alreadyWritten);
         }
 
         foreach (var c in result.Candidates)
         {
             text.Append(CultureInfo.InvariantCulture, $"{Indent}# r = {Figures.Correlation(c.R)}, ρ = {Figures.Correlation(c.Spearman)}, n = {Figures.Count(c.N)}; shape {JsonContract.Name(c.Shape)} on a sample of {Figures.Count(c.SampleRows)} rows.\n");
-            entries += Entry(text, source, table, c.X, c.Y, exact: false, taken);
+            entries += Entry(text, source, table, c.X, c.Y, exact: false, taken, alreadyWritten);
         }
 
         if (entries == 0 && result.Derivations.Count == 0)
@@ -65,8 +66,14 @@ internal static class DiscoverYaml
         return text.ToString();
     }
 
-    private static int Entry(StringBuilder text, string source, string table, string x, string y, bool exact, ISet<string> taken)
+    private static int Entry(StringBuilder text, string source, string table, string x, string y, bool exact, ISet<string> taken, IReadOnlySet<string>? alreadyWritten)
     {
+        if (alreadyWritten is not null && PairNames.For(table, x, y, new HashSet<string>()) is var stem && alreadyWritten.Contains(stem))
+        {
+            text.Append(CultureInfo.InvariantCulture, $"{Indent}# already proposed above: {stem}\n");
+            return 0;
+        }
+
         if ((Identifiers.CheckColumn(x) ?? Identifiers.CheckColumn(y)) is { } problem)
         {
             text.Append(CultureInfo.InvariantCulture, $"{Indent}# not proposed: {problem}\n");
