@@ -61,7 +61,8 @@ public sealed class PostgresDiscoveryTests(PostgresServer server) : IAsyncLifeti
     [Fact]
     public async Task Survey_PlantedDerivations_AreFoundWithTheirEquations()
     {
-        var result = TableDiscovery.Assess((await Survey()).Matrix, (await Survey()).Sample, 0.5, Thresholds.Default);
+        var survey = await Survey();
+        var result = TableDiscovery.Assess(survey.Matrix, survey.Sample, 0.5, Thresholds.Default);
 
         var pounds = Assert.Single(result.Derivations, d => d.Column == "lb");
         Assert.Equal(("kg", DerivationKind.Affine), (pounds.From, pounds.Kind));
