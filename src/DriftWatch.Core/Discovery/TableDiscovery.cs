@@ -75,9 +75,10 @@ public static class TableDiscovery
             string x = matrix.Columns[edge.I], y = matrix.Columns[edge.J];
             var kind = KindOf(profile, edge.R)!.Value;
             derived.Add(m);
+            // The column is m; on the rare edge that has it as x (tied only to later members), the equation reads the other way.
             derivations.Add(new Derivation(
-                y,
-                x,
+                matrix.Columns[m],
+                edge.J == m ? x : y,
                 kind,
                 Equation(kind, profile, x, y),
                 edge.R,
