@@ -103,6 +103,24 @@ public sealed class PostgresDiscoveryTests(PostgresServer server) : IAsyncLifeti
         Assert.Contains("✓ parcels.total_vs_net", validate.Out, StringComparison.Ordinal);
     }
 
+    [Fact]
+    public async Task Survey_SlowView_IsStoppedByTheSourcesStatementTimeout()
+    {
+        // Each row of the view waits 50 ms: the first scan takes far longer than the source's 300 ms.
+        await _db.ExecuteAsync("""
+            CREATE FUNCTION slowly(v float8) RETURNS float8 LANGUAGE sql VOLATILE AS 'SELECT pg_sleep(0.05); SELECT v';
+            CREATE VIEW slow_parcels AS SELECT slowly(kg) AS kg, lb FROM parcels;
+            """);
+        var survey = new PostgresTableSurvey(new SourceConfig
+        {
+            Name = "warehouse", Kind = SourceKind.Postgres, ConnectionString = _db.ConnectionString, StatementTimeout = TimeSpan.FromMilliseconds(300),
+        });
+
+        var failure = await Assert.ThrowsAsync<SourceException>(() => survey.SurveyAsync(new SurveyRequest("slow_parcels", 60, 1_000), null, CancellationToken.None));
+        Assert.Equal(SourceFailure.Timeout, failure.Failure);
+        Assert.StartsWith("Survey of table slow_parcels (source 'warehouse'): cancelled by the statement timeout", failure.Message, StringComparison.Ordinal);
+    }
+
     private async Task<TableSurvey> Survey()
     {
         var survey = new PostgresTableSurvey(new SourceConfig { Name = "warehouse", Kind = SourceKind.Postgres, ConnectionString = _db.ConnectionString });
