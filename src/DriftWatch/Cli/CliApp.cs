@@ -85,6 +85,7 @@ internal static class CliApp
         root.Subcommands.Add(BaselineCommand.Create(console));
         root.Subcommands.Add(AlertsCommand.Create(console));
         root.Subcommands.Add(ReportCommand.Create(console));
+        root.Subcommands.Add(DiscoverCommand.Create(console));
         return root;
     }
 

@@ -12,13 +12,20 @@ internal static class PostgresErrors
     public static SourceException Map(Exception exception, string pair, string source, string endpoint, string? target)
     {
         var subject = target is null ? $"Pair '{pair}' (source '{source}')" : $"Pair '{pair}' (source '{source}', {target})";
+        return MapFor(exception, subject, endpoint, target is not null);
+    }
+
+    /// <summary>As <see cref="Map"/> for work that is not a pair's (a table survey): <paramref name="subject"/> opens the message.</summary>
+    /// <param name="afterConnect">The session was open, so a client timeout is the statement's, not the connection's.</param>
+    public static SourceException MapFor(Exception exception, string subject, string endpoint, bool afterConnect)
+    {
         switch (exception)
         {
             case SourceException already:
                 return already;
             case PostgresException pg:
                 return MapServerError(pg, subject, endpoint);
-            case NpgsqlException { InnerException: TimeoutException } when target is not null:
+            case NpgsqlException { InnerException: TimeoutException } when afterConnect:
                 return new SourceException(SourceFailure.Timeout, $"{subject}: no answer within the command timeout.", exception);
             case NpgsqlException npgsql:
                 var reason = npgsql.InnerException switch

@@ -129,7 +129,7 @@ internal sealed class PostgresPairSql(PairTarget target, WindowRange? window, bo
     private string Values(PositionalParameters p, string? tablesample) =>
         $"SELECT {Float8(Column(target.X), numericX)} AS x, {Float8(Column(target.Y), numericY)} AS y FROM {From()}{tablesample}{Where(p)}";
 
-    private static string Float8(string column, bool numeric) => numeric
+    internal static string Float8(string column, bool numeric) => numeric
         ? $"""
           CASE WHEN {column} IS NULL THEN NULL
                WHEN {column} = 'NaN'::numeric THEN 'NaN'::float8

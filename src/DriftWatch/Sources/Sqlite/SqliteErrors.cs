@@ -15,7 +15,12 @@ internal static class SqliteErrors
 
     public static SourceException Map(Exception exception, string pair, string source, string file, string target, bool timedOut)
     {
-        var subject = $"Pair '{pair}' (source '{source}', {target})";
+        return MapFor(exception, $"Pair '{pair}' (source '{source}', {target})", file, timedOut);
+    }
+
+    /// <summary>As <see cref="Map"/> for work that is not a pair's (a table survey): <paramref name="subject"/> opens the message.</summary>
+    public static SourceException MapFor(Exception exception, string subject, string file, bool timedOut)
+    {
         if (exception is SourceException already)
         {
             return already;
