@@ -27,11 +27,18 @@ internal sealed class PairChecker(
     ILogger<PairChecker> logger,
     LiveConfig? live = null)
 {
-    public async Task<PairCheckResult> CheckAsync(PairConfig pair, CancellationToken cancellationToken)
+    public Task<PairCheckResult> CheckAsync(PairConfig pair, CancellationToken cancellationToken) => CheckAsync(pair, null, cancellationToken);
+
+    /// <summary>
+    /// As <see cref="CheckAsync(PairConfig, CancellationToken)"/>; with <paramref name="shared"/> the pair's rows come
+    /// from its group's shared read (<see cref="TableGroups"/>) instead of a read of its own, and the check starts
+    /// when that read started, the anchor of its window.
+    /// </summary>
+    public async Task<PairCheckResult> CheckAsync(PairConfig pair, SharedRead? shared, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(pair);
         using var _ = LogContext.PushProperty("Pair", pair.Name);
-        var startedAt = time.GetUtcNow();
+        var startedAt = shared?.StartedAt ?? time.GetUtcNow();
         // A marker on the local disk until the run is recorded: a crash in between becomes an interrupted run.
         var runKey = recorder.Begin(pair.Name, startedAt);
         RelationshipProfile? profile = null;
@@ -46,7 +53,7 @@ internal sealed class PairChecker(
             var source = (live?.Current ?? config).FindSource(pair.Source)
                 ?? throw new SourceException(SourceFailure.QueryError, $"pair '{pair.Name}': source '{pair.Source}' is not configured");
             var adapter = sources.Create(source);
-            sampled = await adapter.SampleAsync(pair, startedAt, cancellationToken);
+            sampled = shared?.Read ?? await adapter.SampleAsync(pair, startedAt, cancellationToken);
             profile = Profiler.Profile(sampled.Sample, pair.Thresholds);
             unmeasurable = Measurability.Assess(profile, sampled.Figures, pair.Thresholds, pair.X, pair.Y);
             if (unmeasurable is null)

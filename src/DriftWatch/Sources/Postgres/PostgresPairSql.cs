@@ -117,7 +117,7 @@ internal sealed class PostgresPairSql(PairTarget target, DateTimeOffset? windowF
     private string Values(PositionalParameters p, string? tablesample) =>
         $"SELECT {Float8(Column(target.X), numericX)} AS x, {Float8(Column(target.Y), numericY)} AS y FROM {From()}{tablesample}{Where(p)}";
 
-    private static string Float8(string column, bool numeric) => numeric
+    internal static string Float8(string column, bool numeric) => numeric
         ? $"""
           CASE WHEN {column} IS NULL THEN NULL
                WHEN {column} = 'NaN'::numeric THEN 'NaN'::float8
@@ -132,11 +132,11 @@ internal sealed class PostgresPairSql(PairTarget target, DateTimeOffset? windowF
     private static string Scaled(string value, double factor, double floor, PositionalParameters p) =>
         $"(CASE WHEN abs({value}) < {p.Add(floor, NpgsqlDbType.Double)} THEN 0::float8 ELSE {value} * {p.Add(factor, NpgsqlDbType.Double)} END)";
 
-    private string From() => target.Table is { } table ? table.Quoted : $"({target.Query}) AS q";
+    internal string From() => target.Table is { } table ? table.Quoted : $"({target.Query}) AS q";
 
-    private string Column(string quoted) => target.IsTable ? quoted : "q." + quoted;
+    internal string Column(string quoted) => target.IsTable ? quoted : "q." + quoted;
 
-    private string Where(PositionalParameters p, bool withWindow = true)
+    internal string Where(PositionalParameters p, bool withWindow = true)
     {
         var conditions = new List<string>();
         if (withWindow && target.WindowColumn is not null && windowFrom is { } from && windowTo is { } to)

@@ -1,0 +1,186 @@
+using System.Collections.Concurrent;
+using System.Data;
+using DriftWatch.Core.Configuration;
+using DriftWatch.Core.Profiling;
+using Npgsql;
+using Npgsql.PostgresTypes;
+using NpgsqlTypes;
+
+namespace DriftWatch.Sources.Postgres;
+
+/// <summary>
+/// The shared read of a group of pairs (<see cref="IGroupSource"/>): one session, one snapshot, one gate slot of
+/// <see cref="SourceConfig.MaxConcurrentQueries"/>; one aggregate scan (two when the remembered references lie
+/// too far from the means), one sample of all the group's columns. JIT is off for the session: it makes such
+/// wide aggregates several times slower.
+/// </summary>
+internal sealed partial class PostgresPairSource
+{
+    // Each column's mean at its last shared read: the shift of the next one, so one scan usually suffices.
+    private readonly ConcurrentDictionary<string, double> _references = new(StringComparer.Ordinal);
+
+    public async Task<IReadOnlyList<SampledPair?>> SampleGroupAsync(IReadOnlyList<PairConfig> pairs, DateTimeOffset now, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(pairs);
+        if (pairs.Count == 0)
+        {
+            return [];
+        }
+
+        var first = pairs[0];
+        var targets = pairs.Select(p => PairTarget.From(p)).ToList();
+        var target = targets[0];
+        return await InSessionAsync(first, target, async (connection, ct) =>
+        {
+            await ExecuteAsync(connection, "SELECT set_config('jit', 'off', true)", _ => { }, ct);
+            var from = first.Window is null ? (DateTimeOffset?)null : now - first.Window.Last;
+            var shared = new PostgresPairSql(target, from, now);
+            var all = targets.SelectMany(t => new[] { t.X, t.Y }).Distinct(StringComparer.Ordinal).ToList();
+            var types = await ProbeGroupAsync(connection, new PostgresGroupSql(shared, target, all, [], new bool[all.Count]), all, first, target, ct);
+
+            // A pair with a column that is not a number is left to its own check, which names the column.
+            var included = Enumerable.Range(0, pairs.Count).Where(i => types[targets[i].X] is not null && types[targets[i].Y] is not null).ToList();
+            var columns = included.SelectMany(i => new[] { targets[i].X, targets[i].Y }).Distinct(StringComparer.Ordinal).ToList();
+            var index = columns.Select((c, i) => (c, i)).ToDictionary(e => e.c, e => e.i, StringComparer.Ordinal);
+            var pairColumns = included.Select(i => (index[targets[i].X], index[targets[i].Y])).ToList();
+            var sql = new PostgresGroupSql(shared, target, columns, pairColumns, [.. columns.Select(c => types[c] == true)]);
+
+            var figures = new Core.History.SourceFigures?[pairs.Count];
+            long rows = 0;
+            if (included.Count > 0)
+            {
+                var keys = columns.Select(c => shared.From() + "\n" + target.Where + "\n" + c).ToList();
+                var references = keys.Select(k => _references.TryGetValue(k, out var r) ? r : 0.0).ToArray();
+                for (var pass = 0; pass < 2; pass++)
+                {
+                    var read = await ReadGroupAggregateAsync(connection, sql, references, columns.Count, pairColumns.Count, ct);
+                    rows = read.Rows;
+                    var lacking = false;
+                    for (var k = 0; k < included.Count; k++)
+                    {
+                        var (x, y) = pairColumns[k];
+                        figures[included[k]] ??= GroupFigures.Of(read.Rows, references[x], read.Columns[x], references[y], read.Columns[y], read.Pairs[k]);
+                        lacking |= figures[included[k]] is null;
+                    }
+
+                    // Shift by this scan's means: the next read (or a second scan now) keeps every digit.
+                    var moved = false;
+                    for (var c = 0; c < columns.Count; c++)
+                    {
+                        if (read.Columns[c].Mean(references[c]) is { } mean && double.IsFinite(mean))
+                        {
+                            moved |= mean != references[c];
+                            references[c] = mean;
+                            _references[keys[c]] = mean;
+                        }
+                    }
+
+                    if (!lacking || !moved)
+                    {
+                        break;
+                    }
+                }
+            }
+
+            var spec = first.Sample;
+            var needsEstimate = target.IsTable && spec.Method is SampleMethod.Auto or SampleMethod.Tablesample;
+            var estimate = needsEstimate ? await EstimateRowsAsync(connection, target.Table!, ct) : null;
+            var plan = SamplePlanner.Choose(spec, rows, estimate, first.Window is not null || target.Where is not null);
+            if (spec.Seed is { } seed && plan.Draw != SampleDraw.All)
+            {
+                await ExecuteAsync(connection, "SELECT setseed($1)", p => p.Add(SeedFraction(seed), NpgsqlDbType.Double), ct);
+            }
+
+            var samples = included.Count == 0 ? [] : await ReadGroupSampleAsync(connection, sql, plan, spec, columns.Count, pairColumns, ct);
+            var result = new SampledPair?[pairs.Count];
+            for (var k = 0; k < included.Count; k++)
+            {
+                if (figures[included[k]] is { } f)
+                {
+                    result[included[k]] = new SampledPair(samples[k], f, Describe(plan, spec, samples[k]));
+                }
+            }
+
+            return (IReadOnlyList<SampledPair?>)result;
+        }, cancellationToken);
+    }
+
+    /// <summary>Per column: true for numeric (it needs the range guard), false for another number type, null when it is not a number.</summary>
+    private static async Task<Dictionary<string, bool?>> ProbeGroupAsync(
+        NpgsqlConnection connection, PostgresGroupSql sql, List<string> columns, PairConfig first, PairTarget target, CancellationToken ct)
+    {
+        var (text, parameters) = sql.Probe();
+        await using var batch = new NpgsqlBatch(connection);
+        batch.BatchCommands.Add(parameters.Command(text));
+        await using var reader = await batch.ExecuteReaderAsync(CommandBehavior.SchemaOnly, ct);
+        var types = new Dictionary<string, bool?>(StringComparer.Ordinal);
+        for (var i = 0; i < reader.FieldCount; i++)
+        {
+            var type = reader.GetPostgresType(i);
+            var internalName = (type is PostgresDomainType domain ? domain.BaseType : type)?.InternalName ?? "unknown";
+            if (i < columns.Count)
+            {
+                types[columns[i]] = NumericTypes.Contains(internalName) ? internalName == "numeric" : null;
+            }
+            else if (!TimeTypes.Contains(internalName))
+            {
+                throw new SourceException(SourceFailure.QueryError, $"Pair '{first.Name}' ({target.Describe}): window column {first.Window!.Column} is {type?.DisplayName ?? internalName}; it must be a date or timestamp.");
+            }
+        }
+
+        return types;
+    }
+
+    private sealed record GroupAggregate(long Rows, ColumnSums[] Columns, PairSums[] Pairs);
+
+    private static async Task<GroupAggregate> ReadGroupAggregateAsync(
+        NpgsqlConnection connection, PostgresGroupSql sql, IReadOnlyList<double> references, int columns, int pairs, CancellationToken ct)
+    {
+        var (text, parameters) = sql.Aggregate(references);
+        await using var batch = new NpgsqlBatch(connection);
+        batch.BatchCommands.Add(parameters.Command(text));
+        await using var reader = await batch.ExecuteReaderAsync(ct);
+        await reader.ReadAsync(ct);
+        var rows = reader.GetInt64(0);
+        var columnSums = new ColumnSums[columns];
+        for (var c = 0; c < columns; c++)
+        {
+            var a = reader.GetFieldValue<double?[]>(1 + c);
+            columnSums[c] = new ColumnSums((long)(a[0] ?? 0), a[1] ?? 0, a[2] ?? 0, (long)(a[3] ?? 0));
+        }
+
+        var pairSums = new PairSums[pairs];
+        for (var k = 0; k < pairs; k++)
+        {
+            var a = reader.GetFieldValue<double?[]>(1 + columns + k);
+            pairSums[k] = new PairSums(a[0] ?? 0, (long)(a[1] ?? 0), (long)(a[2] ?? 0), a[3] ?? 0, a[4] ?? 0, a[5] ?? 0, a[6] ?? 0);
+        }
+
+        return new GroupAggregate(rows, columnSums, pairSums);
+    }
+
+    private static async Task<PairedSample[]> ReadGroupSampleAsync(
+        NpgsqlConnection connection, PostgresGroupSql sql, SamplePlan plan, SampleSpec spec, int columns, List<(int X, int Y)> pairs, CancellationToken ct)
+    {
+        var (text, parameters) = sql.Sample(plan, spec.Rows, spec.Seed, spec.Bernoulli);
+        await using var batch = new NpgsqlBatch(connection);
+        batch.BatchCommands.Add(parameters.Command(text));
+        await using var reader = await batch.ExecuteReaderAsync(CommandBehavior.SequentialAccess, ct);
+        var builders = pairs.Select(_ => new PairedSampleBuilder(plan.Draw == SampleDraw.All ? 0 : spec.Rows)).ToArray();
+        var row = new double?[columns];
+        while (await reader.ReadAsync(ct))
+        {
+            for (var c = 0; c < columns; c++)
+            {
+                row[c] = reader.IsDBNull(c) ? null : reader.GetDouble(c);
+            }
+
+            for (var k = 0; k < pairs.Count; k++)
+            {
+                builders[k].Add(row[pairs[k].X], row[pairs[k].Y]);
+            }
+        }
+
+        return [.. builders.Select(b => b.Build())];
+    }
+}
