@@ -64,9 +64,10 @@ internal static class GroupFigures
             meanY,
             n > 1 ? vx / (n - 1) : null,
             n > 1 ? vy / (n - 1) : null);
+        // The centred sums keep their digits (checked above), so a small spread on a huge offset, which the lone
+        // check must rescale for PostgreSQL's one-pass sums, needs nothing more here.
         var finite = double.IsFinite(cxy) && double.IsFinite(meanX) && double.IsFinite(meanY) && (figures.PearsonR is not { } r || double.IsFinite(r));
-        // Values so large or so tightly spread that the lone check rescales them: read the pair alone.
-        return finite && !Rescaling.Needed(figures) ? figures : null;
+        return finite ? figures : null;
     }
 
     /// <summary>Σd² − (Σd)²/n when it keeps its digits: exactly 0 when every d is 0, null when too many digits are lost.</summary>
