@@ -31,10 +31,13 @@ internal sealed class PostgresGroupSql(PostgresPairSql shared, PairTarget target
     /// Row count, then per column ARRAY[finite count, Σd, Σd², null count], then per pair ARRAY[Σ dx·dy, unusable
     /// rows, rows with a null, Σdx and Σdx² where y is unusable, Σdy and Σdy² where x is unusable], with
     /// d = value − <paramref name="references"/>[column] on finite values and 0 elsewhere (see <see cref="GroupFigures"/>).
+    /// A pair not marked in <paramref name="full"/> gets ARRAY[Σ dx·dy] only: enough when both its columns turn out
+    /// finite on every row (their finite counts equal the row count), which the caller checks.
     /// </summary>
-    public (string Sql, PositionalParameters Parameters) Aggregate(IReadOnlyList<double> references)
+    public (string Sql, PositionalParameters Parameters) Aggregate(IReadOnlyList<double> references, IReadOnlyList<bool> full)
     {
         ArgumentNullException.ThrowIfNull(references);
+        ArgumentNullException.ThrowIfNull(full);
         var p = new PositionalParameters();
         var inner = new StringBuilder();
         for (var c = 0; c < columns.Count; c++)
@@ -53,9 +56,16 @@ internal sealed class PostgresGroupSql(PostgresPairSql shared, PairTarget target
             outer.Append(CultureInfo.InvariantCulture, $",\n       ARRAY[count(*) FILTER (WHERE d.f{i}), sum(d.d{i}), sum(d.d{i} * d.d{i}), count(*) FILTER (WHERE d.n{i})]::float8[]");
         }
 
-        foreach (var (x, y) in pairs)
+        for (var k = 0; k < pairs.Count; k++)
         {
+            var (x, y) = pairs[k];
             string a = Text(x), b = Text(y);
+            if (!full[k])
+            {
+                outer.Append(CultureInfo.InvariantCulture, $",\n       ARRAY[sum(d.d{a} * d.d{b})]::float8[]");
+                continue;
+            }
+
             outer.Append(CultureInfo.InvariantCulture, $",\n       ARRAY[sum(d.d{a} * d.d{b}), count(*) FILTER (WHERE NOT (d.f{a} AND d.f{b})), count(*) FILTER (WHERE d.n{a} OR d.n{b}), ")
                 .Append(CultureInfo.InvariantCulture, $"sum(d.d{a}) FILTER (WHERE NOT d.f{b}), sum(d.d{a} * d.d{a}) FILTER (WHERE NOT d.f{b}), ")
                 .Append(CultureInfo.InvariantCulture, $"sum(d.d{b}) FILTER (WHERE NOT d.f{a}), sum(d.d{b} * d.d{b}) FILTER (WHERE NOT d.f{a})]::float8[]");

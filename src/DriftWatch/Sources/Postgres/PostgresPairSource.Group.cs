@@ -19,6 +19,9 @@ internal sealed partial class PostgresPairSource
     // Each column's mean at its last shared read: the shift of the next one, so one scan usually suffices.
     private readonly ConcurrentDictionary<string, double> _references = new(StringComparer.Ordinal);
 
+    // Whether each column was finite on every row at its last shared read: its pairs then get the lean aggregate.
+    private readonly ConcurrentDictionary<string, bool> _clean = new(StringComparer.Ordinal);
+
     public async Task<IReadOnlyList<SampledPair?>> SampleGroupAsync(IReadOnlyList<PairConfig> pairs, DateTimeOffset now, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(pairs);
@@ -51,31 +54,40 @@ internal sealed partial class PostgresPairSource
             {
                 var keys = columns.Select(c => shared.From() + "\n" + target.Where + "\n" + c).ToList();
                 var references = keys.Select(k => _references.TryGetValue(k, out var r) ? r : 0.0).ToArray();
+                var clean = keys.Select(k => _clean.TryGetValue(k, out var c) && c).ToArray();
                 for (var pass = 0; pass < 2; pass++)
                 {
-                    var read = await ReadGroupAggregateAsync(connection, sql, references, columns.Count, pairColumns.Count, ct);
+                    // Pairs whose columns were finite on every row last time get the lean form; this scan checks it.
+                    var full = pairColumns.Select(c => !(clean[c.Item1] && clean[c.Item2])).ToArray();
+                    var read = await ReadGroupAggregateAsync(connection, sql.Aggregate(references, full), columns.Count, pairColumns.Count, ct);
                     rows = read.Rows;
                     var lacking = false;
                     for (var k = 0; k < included.Count; k++)
                     {
                         var (x, y) = pairColumns[k];
-                        figures[included[k]] ??= GroupFigures.Of(read.Rows, references[x], read.Columns[x], references[y], read.Columns[y], read.Pairs[k]);
+                        var sums = full[k] || (read.Columns[x].Finite == rows && read.Columns[y].Finite == rows) ? read.Pairs[k] : null;
+                        figures[included[k]] ??= sums is null ? null : GroupFigures.Of(rows, references[x], read.Columns[x], references[y], read.Columns[y], sums);
                         lacking |= figures[included[k]] is null;
                     }
 
-                    // Shift by this scan's means: the next read (or a second scan now) keeps every digit.
-                    var moved = false;
+                    // Shift by this scan's means and note which columns were finite throughout: the next read (or a
+                    // second scan now) keeps every digit and knows which pairs need the sums over unusable rows.
+                    var changed = false;
                     for (var c = 0; c < columns.Count; c++)
                     {
+                        var isClean = read.Columns[c].Finite == rows;
+                        changed |= isClean != clean[c];
+                        clean[c] = isClean;
+                        _clean[keys[c]] = isClean;
                         if (read.Columns[c].Mean(references[c]) is { } mean && double.IsFinite(mean))
                         {
-                            moved |= mean != references[c];
+                            changed |= mean != references[c];
                             references[c] = mean;
                             _references[keys[c]] = mean;
                         }
                     }
 
-                    if (!lacking || !moved)
+                    if (!lacking || !changed)
                     {
                         break;
                     }
@@ -134,9 +146,9 @@ internal sealed partial class PostgresPairSource
     private sealed record GroupAggregate(long Rows, ColumnSums[] Columns, PairSums[] Pairs);
 
     private static async Task<GroupAggregate> ReadGroupAggregateAsync(
-        NpgsqlConnection connection, PostgresGroupSql sql, IReadOnlyList<double> references, int columns, int pairs, CancellationToken ct)
+        NpgsqlConnection connection, (string Sql, PositionalParameters Parameters) aggregate, int columns, int pairs, CancellationToken ct)
     {
-        var (text, parameters) = sql.Aggregate(references);
+        var (text, parameters) = aggregate;
         await using var batch = new NpgsqlBatch(connection);
         batch.BatchCommands.Add(parameters.Command(text));
         await using var reader = await batch.ExecuteReaderAsync(ct);
@@ -153,7 +165,10 @@ internal sealed partial class PostgresPairSource
         for (var k = 0; k < pairs; k++)
         {
             var a = reader.GetFieldValue<double?[]>(1 + columns + k);
-            pairSums[k] = new PairSums(a[0] ?? 0, (long)(a[1] ?? 0), (long)(a[2] ?? 0), a[3] ?? 0, a[4] ?? 0, a[5] ?? 0, a[6] ?? 0);
+            // The lean form (Σ dx·dy alone) stands for a pair with no unusable row; the caller checks that it has none.
+            pairSums[k] = a.Length == 1
+                ? new PairSums(a[0] ?? 0, 0, 0, 0, 0, 0, 0)
+                : new PairSums(a[0] ?? 0, (long)(a[1] ?? 0), (long)(a[2] ?? 0), a[3] ?? 0, a[4] ?? 0, a[5] ?? 0, a[6] ?? 0);
         }
 
         return new GroupAggregate(rows, columnSums, pairSums);

@@ -102,6 +102,32 @@ public sealed class PostgresGroupTests(PostgresServer server) : PostgresSourceTe
     }
 
     [Fact]
+    public async Task SharedRead_Later_LeanFormStillEqualsTheReadsAlone_WhenValuesGoMissing()
+    {
+        await using var source = new PostgresPairSource(PgSource(Db.ConnectionString));
+        var pairs = new[] { ("a", "b"), ("a", "c"), ("b", "c"), ("big", "c") }
+            .Select(c => Table("gauges", c.Item1, c.Item2, new SampleSpec { Method = SampleMethod.All }) with { Name = $"{c.Item1}_{c.Item2}" })
+            .ToList();
+
+        // Every column finite on every row: the next read sums only Σ dx·dy per pair and checks that assumption.
+        await AssertEqualsAloneAsync();
+        await AssertEqualsAloneAsync();
+        await Db.ExecuteAsync("UPDATE gauges SET b = NULL WHERE id = 5; UPDATE gauges SET c = 'NaN' WHERE id = 6; UPDATE gauges SET a = 'Infinity' WHERE id = 7");
+        await AssertEqualsAloneAsync();
+        await AssertEqualsAloneAsync();
+
+        async Task AssertEqualsAloneAsync()
+        {
+            var reads = await source.SampleGroupAsync(pairs, Now, CancellationToken.None);
+            for (var i = 0; i < pairs.Count; i++)
+            {
+                var alone = await source.SampleAsync(pairs[i], Now, CancellationToken.None);
+                AssertSameFigures(alone.Figures!, Assert.IsType<SampledPair>(reads[i]).Figures!, pairs[i].Name);
+            }
+        }
+    }
+
+    [Fact]
     public async Task SharedRead_WithWindowAndFilter_EqualsTheReadsAlone()
     {
         await using var source = new PostgresPairSource(PgSource(Db.ConnectionString));
