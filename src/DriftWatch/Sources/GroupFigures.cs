@@ -6,10 +6,11 @@ namespace DriftWatch.Sources;
 /// A column's sums in a shared aggregate, over the rows where it is finite, of d = value − reference
 /// (d is 0 where the value is null or not finite).
 /// </summary>
+/// <param name="Finite">Rows with a finite value; −1 when a lean read found a value that is not finite (its sums are then unknown).</param>
 internal sealed record ColumnSums(long Finite, double Sum, double Squares, long Nulls)
 {
-    /// <summary>The column's mean over its finite rows; null without any.</summary>
-    public double? Mean(double reference) => Finite == 0 ? null : reference + (Sum / Finite);
+    /// <summary>The column's mean over its finite rows; null without any, or when unknown.</summary>
+    public double? Mean(double reference) => Finite <= 0 ? null : reference + (Sum / Finite);
 }
 
 /// <summary>

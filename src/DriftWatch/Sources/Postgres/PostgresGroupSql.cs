@@ -81,6 +81,31 @@ internal sealed class PostgresGroupSql(PostgresPairSql shared, PairTarget target
         return (sql, p);
     }
 
+    /// <summary>
+    /// The lean form, for a group whose columns were all finite on every row at the last read: no finiteness test,
+    /// no subquery, so PostgreSQL may run it as a parallel scan. Row count, per column ARRAY[count of non-null
+    /// values, Σd, Σd²], per pair ARRAY[Σ dx·dy], d = value − reference. A null shows in the count, a NaN or an
+    /// infinity makes the column's sums non-finite: either way the caller sees that the assumption failed.
+    /// </summary>
+    public (string Sql, PositionalParameters Parameters) Lean(IReadOnlyList<double> references)
+    {
+        ArgumentNullException.ThrowIfNull(references);
+        var p = new PositionalParameters();
+        var d = columns.Select((c, i) => $"({PostgresPairSql.Float8(shared.Column(c), numeric[i])} - {p.Add(references[i], NpgsqlDbType.Double)})").ToList();
+        var outer = new StringBuilder("count(*)");
+        for (var c = 0; c < columns.Count; c++)
+        {
+            outer.Append(CultureInfo.InvariantCulture, $",\n       ARRAY[count({shared.Column(columns[c])}), sum({d[c]}), sum({d[c]} * {d[c]})]::float8[]");
+        }
+
+        foreach (var (x, y) in pairs)
+        {
+            outer.Append(CultureInfo.InvariantCulture, $",\n       ARRAY[sum({d[x]} * {d[y]})]::float8[]");
+        }
+
+        return ($"SELECT {outer}\nFROM {shared.From()}{shared.Where(p)}", p);
+    }
+
     /// <summary>The rows of the sample with every column of the group, drawn as <see cref="PostgresPairSql.Sample"/> draws one pair's.</summary>
     public (string Sql, PositionalParameters Parameters) Sample(SamplePlan plan, int rows, int? seed, bool bernoulli)
     {

@@ -55,11 +55,12 @@ internal sealed partial class PostgresPairSource
                 var keys = columns.Select(c => shared.From() + "\n" + target.Where + "\n" + c).ToList();
                 var references = keys.Select(k => _references.TryGetValue(k, out var r) ? r : 0.0).ToArray();
                 var clean = keys.Select(k => _clean.TryGetValue(k, out var c) && c).ToArray();
-                for (var pass = 0; pass < 2; pass++)
+                for (var pass = 0; pass < 3; pass++)
                 {
                     // Pairs whose columns were finite on every row last time get the lean form; this scan checks it.
                     var full = pairColumns.Select(c => !(clean[c.Item1] && clean[c.Item2])).ToArray();
-                    var read = await ReadGroupAggregateAsync(connection, sql.Aggregate(references, full), columns.Count, pairColumns.Count, ct);
+                    var statement = full.Any(f => f) ? sql.Aggregate(references, full) : sql.Lean(references);
+                    var read = await ReadGroupAggregateAsync(connection, statement, columns.Count, pairColumns.Count, ct);
                     rows = read.Rows;
                     var lacking = false;
                     for (var k = 0; k < included.Count; k++)
@@ -158,6 +159,17 @@ internal sealed partial class PostgresPairSource
         for (var c = 0; c < columns; c++)
         {
             var a = reader.GetFieldValue<double?[]>(1 + c);
+            if (a.Length == 3)
+            {
+                // The lean form: a NaN or an infinity made the sums non-finite; the column then counts as not finite throughout.
+                var count = (long)(a[0] ?? 0);
+                double sum = a[1] ?? 0, squares = a[2] ?? 0;
+                columnSums[c] = double.IsFinite(sum) && double.IsFinite(squares)
+                    ? new ColumnSums(count, sum, squares, rows - count)
+                    : new ColumnSums(-1, 0, 0, rows - count);
+                continue;
+            }
+
             columnSums[c] = new ColumnSums((long)(a[0] ?? 0), a[1] ?? 0, a[2] ?? 0, (long)(a[3] ?? 0));
         }
 
