@@ -53,7 +53,7 @@ internal sealed class PairChecker(
             var source = (live?.Current ?? config).FindSource(pair.Source)
                 ?? throw new SourceException(SourceFailure.QueryError, $"pair '{pair.Name}': source '{pair.Source}' is not configured");
             var adapter = sources.Create(source);
-            sampled = shared?.Read ?? await adapter.SampleAsync(pair, startedAt, cancellationToken);
+            sampled = shared?.Read.Value ?? await adapter.SampleAsync(pair, startedAt, cancellationToken);
             profile = Profiler.Profile(sampled.Sample, pair.Thresholds);
             unmeasurable = Measurability.Assess(profile, sampled.Figures, pair.Thresholds, pair.X, pair.Y);
             if (unmeasurable is null)

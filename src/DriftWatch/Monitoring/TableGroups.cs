@@ -76,6 +76,11 @@ internal sealed class TableGroups(PairChecker checker, ISourceFactory sources, D
         for (var i = 0; i < group.Count; i++)
         {
             results[i] = await checker.CheckAsync(group[i], reads?[i], cancellationToken);
+            if (reads is not null)
+            {
+                // The pair's sample is recorded: let it go before the next pair's is taken out.
+                reads[i] = null;
+            }
         }
 
         return results;

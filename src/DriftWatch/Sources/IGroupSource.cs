@@ -12,7 +12,9 @@ internal interface IGroupSource
     /// <summary>
     /// One entry per pair, in order: what <see cref="IPairSource.SampleAsync"/> of that pair alone would give, or
     /// null when the pair must be read alone (a column that is not a number, figures the shared sums cannot give
-    /// to full precision). Throws <see cref="SourceException"/> when the shared read fails as a whole.
+    /// to full precision). Each pair's sample is taken out of the shared rows only when asked for, so a group of
+    /// 100 pairs holds one table of sampled columns rather than 100 samples. Throws
+    /// <see cref="SourceException"/> when the shared read fails as a whole.
     /// </summary>
-    Task<IReadOnlyList<SampledPair?>> SampleGroupAsync(IReadOnlyList<PairConfig> pairs, DateTimeOffset now, CancellationToken cancellationToken);
+    Task<IReadOnlyList<Lazy<SampledPair>?>> SampleGroupAsync(IReadOnlyList<PairConfig> pairs, DateTimeOffset now, CancellationToken cancellationToken);
 }

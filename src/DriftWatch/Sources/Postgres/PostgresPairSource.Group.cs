@@ -22,7 +22,7 @@ internal sealed partial class PostgresPairSource
     // Whether each column was finite on every row at its last shared read: its pairs then get the lean aggregate.
     private readonly ConcurrentDictionary<string, bool> _clean = new(StringComparer.Ordinal);
 
-    public async Task<IReadOnlyList<SampledPair?>> SampleGroupAsync(IReadOnlyList<PairConfig> pairs, DateTimeOffset now, CancellationToken cancellationToken)
+    public async Task<IReadOnlyList<Lazy<SampledPair>?>> SampleGroupAsync(IReadOnlyList<PairConfig> pairs, DateTimeOffset now, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(pairs);
         if (pairs.Count == 0)
@@ -104,17 +104,22 @@ internal sealed partial class PostgresPairSource
                 await ExecuteAsync(connection, "SELECT setseed($1)", p => p.Add(SeedFraction(seed), NpgsqlDbType.Double), ct);
             }
 
-            var samples = included.Count == 0 ? [] : await ReadGroupSampleAsync(connection, sql, plan, spec, columns.Count, pairColumns, ct);
-            var result = new SampledPair?[pairs.Count];
+            var rowsRead = included.Count == 0 ? null : await ReadGroupSampleAsync(connection, sql, plan, spec, columns.Count, ct);
+            var result = new Lazy<SampledPair>?[pairs.Count];
             for (var k = 0; k < included.Count; k++)
             {
                 if (figures[included[k]] is { } f)
                 {
-                    result[included[k]] = new SampledPair(samples[k], f, Describe(plan, spec, samples[k]));
+                    var (x, y) = pairColumns[k];
+                    result[included[k]] = new Lazy<SampledPair>(() =>
+                    {
+                        var sample = rowsRead!.Pair(x, y, plan.Draw == SampleDraw.All ? 0 : spec.Rows);
+                        return new SampledPair(sample, f, Describe(plan, spec, sample));
+                    });
                 }
             }
 
-            return (IReadOnlyList<SampledPair?>)result;
+            return (IReadOnlyList<Lazy<SampledPair>?>)result;
         }, cancellationToken);
     }
 
@@ -186,28 +191,54 @@ internal sealed partial class PostgresPairSource
         return new GroupAggregate(rows, columnSums, pairSums);
     }
 
-    private static async Task<PairedSample[]> ReadGroupSampleAsync(
-        NpgsqlConnection connection, PostgresGroupSql sql, SamplePlan plan, SampleSpec spec, int columns, List<(int X, int Y)> pairs, CancellationToken ct)
+    private static async Task<SampledColumns> ReadGroupSampleAsync(
+        NpgsqlConnection connection, PostgresGroupSql sql, SamplePlan plan, SampleSpec spec, int columns, CancellationToken ct)
     {
         var (text, parameters) = sql.Sample(plan, spec.Rows, spec.Seed, spec.Bernoulli);
         await using var batch = new NpgsqlBatch(connection);
         batch.BatchCommands.Add(parameters.Command(text));
         await using var reader = await batch.ExecuteReaderAsync(CommandBehavior.SequentialAccess, ct);
-        var builders = pairs.Select(_ => new PairedSampleBuilder(plan.Draw == SampleDraw.All ? 0 : spec.Rows)).ToArray();
-        var row = new double?[columns];
+        var read = new SampledColumns(columns, plan.Draw == SampleDraw.All ? 0 : spec.Rows);
         while (await reader.ReadAsync(ct))
         {
             for (var c = 0; c < columns; c++)
             {
-                row[c] = reader.IsDBNull(c) ? null : reader.GetDouble(c);
-            }
-
-            for (var k = 0; k < pairs.Count; k++)
-            {
-                builders[k].Add(row[pairs[k].X], row[pairs[k].Y]);
+                read.Add(c, reader.IsDBNull(c) ? null : reader.GetDouble(c));
             }
         }
 
-        return [.. builders.Select(b => b.Build())];
+        return read;
+    }
+
+    /// <summary>The sampled rows of a group, column by column (a null kept apart from NaN); each pair's sample is taken out on demand.</summary>
+    private sealed class SampledColumns
+    {
+        private readonly List<double>[] _values;
+        private readonly List<bool>[] _nulls;
+
+        public SampledColumns(int columns, int capacity)
+        {
+            _values = [.. Enumerable.Range(0, columns).Select(_ => new List<double>(capacity))];
+            _nulls = [.. Enumerable.Range(0, columns).Select(_ => new List<bool>(capacity))];
+        }
+
+        public void Add(int column, double? value)
+        {
+            _values[column].Add(value ?? 0);
+            _nulls[column].Add(value is null);
+        }
+
+        /// <summary>The pair's sample, row by row in the order read, as <see cref="PairedSampleBuilder"/> builds a lone read's.</summary>
+        public PairedSample Pair(int x, int y, int capacity)
+        {
+            var builder = new PairedSampleBuilder(capacity);
+            var count = _values[x].Count;
+            for (var i = 0; i < count; i++)
+            {
+                builder.Add(_nulls[x][i] ? null : _values[x][i], _nulls[y][i] ? null : _values[y][i]);
+            }
+
+            return builder.Build();
+        }
     }
 }

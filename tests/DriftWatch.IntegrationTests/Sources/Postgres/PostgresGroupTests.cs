@@ -46,7 +46,7 @@ public sealed class PostgresGroupTests(PostgresServer server) : PostgresSourceTe
         for (var i = 0; i < pairs.Count; i++)
         {
             var (x, y) = Columns[i];
-            var figures = Assert.IsType<SampledPair>(reads[i]).Figures!;
+            var figures = Assert.IsType<SampledPair>(reads[i]?.Value).Figures!;
             // Oracle: PostgreSQL's own aggregates over the rows where both values are finite as float8. Column big
             // (1e9 plus a spread of 1) is translated by exactly 1e9 first (exact in float8: Sterbenz), since
             // PostgreSQL's one-pass sums lose digits on such an offset (Chan, Golub and LeVeque, from memory); the
@@ -90,7 +90,7 @@ public sealed class PostgresGroupTests(PostgresServer server) : PostgresSourceTe
 
         for (var i = 0; i < pairs.Count; i++)
         {
-            var shared = Assert.IsType<SampledPair>(reads[i]);
+            var shared = Assert.IsType<SampledPair>(reads[i]?.Value);
             var alone = await source.SampleAsync(pairs[i], Now, CancellationToken.None);
             // The same rows, in the same order, with the same counts of dropped values.
             Assert.Equal(alone.Sample.X, shared.Sample.X);
@@ -124,7 +124,7 @@ public sealed class PostgresGroupTests(PostgresServer server) : PostgresSourceTe
             for (var i = 0; i < pairs.Count; i++)
             {
                 var alone = await source.SampleAsync(pairs[i], Now, CancellationToken.None);
-                AssertSameFigures(alone.Figures!, Assert.IsType<SampledPair>(reads[i]).Figures!, pairs[i].Name);
+                AssertSameFigures(alone.Figures!, Assert.IsType<SampledPair>(reads[i]?.Value).Figures!, pairs[i].Name);
             }
         }
     }
@@ -142,7 +142,7 @@ public sealed class PostgresGroupTests(PostgresServer server) : PostgresSourceTe
 
         for (var i = 0; i < pairs.Count; i++)
         {
-            var shared = Assert.IsType<SampledPair>(reads[i]);
+            var shared = Assert.IsType<SampledPair>(reads[i]?.Value);
             var alone = await source.SampleAsync(pairs[i], Now, CancellationToken.None);
             Assert.Equal(14_400, shared.Figures!.RowCount);
             Assert.Equal(alone.Sample.X, shared.Sample.X);
@@ -164,7 +164,7 @@ public sealed class PostgresGroupTests(PostgresServer server) : PostgresSourceTe
 
         Assert.Null(reads[1]);
         var alone = await source.SampleAsync(pairs[0], Now, CancellationToken.None);
-        AssertSameFigures(alone.Figures!, reads[0]!.Figures!, "ok");
+        AssertSameFigures(alone.Figures!, reads[0]!.Value.Figures!, "ok");
         var error = await Assert.ThrowsAsync<SourceException>(() => source.SampleAsync(pairs[1], Now, CancellationToken.None));
         Assert.Equal(SourceFailure.NonNumericColumn, error.Failure);
     }
