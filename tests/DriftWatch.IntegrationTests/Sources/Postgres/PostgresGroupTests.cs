@@ -150,6 +150,33 @@ public sealed class PostgresGroupTests(PostgresServer server) : PostgresSourceTe
         }
     }
 
+    [Theory]
+    [InlineData("SELECT i::float8 AS x, 5::float8 AS y, (i % 2)::float8 AS z FROM generate_series(1, 50) AS i", 50)] // a constant column
+    [InlineData("SELECT 3::float8 AS x, 4::float8 AS y, 7::float8 AS z", 1)] // one row
+    [InlineData("SELECT 1::float8 AS x, 2::float8 AS y, 3::float8 AS z WHERE false", 0)] // no row
+    public async Task SharedRead_DegenerateData_GivesTheNullsOfTheReadsAlone(string rows, long count)
+    {
+        await Db.ExecuteAsync($"CREATE TABLE edge AS {rows}");
+        await using var source = new PostgresPairSource(PgSource(Db.ConnectionString));
+        var pairs = new[] { ("x", "y"), ("y", "z"), ("x", "z") }
+            .Select(c => Table("edge", c.Item1, c.Item2, new SampleSpec { Method = SampleMethod.All }) with { Name = c.Item1 + c.Item2 })
+            .ToList();
+
+        // Twice: the first read starts from reference 0, the second from the remembered means (lean form).
+        for (var round = 0; round < 2; round++)
+        {
+            var reads = await source.SampleGroupAsync(pairs, Now, CancellationToken.None);
+            for (var i = 0; i < pairs.Count; i++)
+            {
+                // Oracle: the read alone, whose figures are PostgreSQL's own aggregates (NULL r and slope for a
+                // constant column, NULL variances for one row, NULL means for none).
+                var alone = await source.SampleAsync(pairs[i], Now, CancellationToken.None);
+                Assert.Equal(count, alone.Figures!.RowCount);
+                AssertSameFigures(alone.Figures!, Assert.IsType<SampledPair>(reads[i]?.Value).Figures!, pairs[i].Name);
+            }
+        }
+    }
+
     [Fact]
     public async Task SharedRead_PairWithATextColumn_IsLeftToItsOwnCheck()
     {
