@@ -14,6 +14,12 @@ internal static class BenchmarkProgram
             return await Cycle.CycleCommand.RunAsync(args[1..]);
         }
 
+        // `-- shared-read`: one table's shared read of 10 and 100 pairs against PostgreSQL's corr (see Cycle/SharedReadCommand.cs).
+        if (args.Length > 0 && args[0] == Cycle.SharedReadCommand.Name)
+        {
+            return await Cycle.SharedReadCommand.RunAsync(args[1..]);
+        }
+
         // `-- calibrate [--quick]`: false findings, confirmed alerts and detection of the statistics (see Calibration/CalibrateCommand.cs).
         if (args.Length > 0 && args[0] == Calibration.CalibrateCommand.Name)
         {

@@ -41,6 +41,7 @@ internal static class DriftWatchServices
             sp.GetService<CheckMarkers>()));
         services.AddDriftWatchTriage();
         services.AddSingleton<PairChecker>();
+        services.AddSingleton<TableGroups>();
         services.AddSingleton<MonitorCycle>();
         services.AddSingleton<CheckPass>();
         services.AddSingleton<RunFeed>();

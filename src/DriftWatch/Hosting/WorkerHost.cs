@@ -3,6 +3,7 @@ using DriftWatch.Core.Configuration;
 using DriftWatch.Dashboard;
 using DriftWatch.Scheduling;
 using DriftWatch.Spool;
+using DriftWatch.Store;
 using Microsoft.AspNetCore.Builder;
 using Microsoft.AspNetCore.Hosting;
 using Microsoft.Extensions.DependencyInjection;
@@ -39,6 +40,9 @@ internal static class WorkerHost
         var time = options.Time ?? TimeProvider.System;
         builder.Services.AddDriftWatch(config, time, asWorker: true);
         builder.Services.AddSingleton(new LiveConfig(config, InitialHash(config), time.GetUtcNow()));
+        // Pairs of one table due in the same slot share a read; the store-held claims keep each slot checked once.
+        builder.Services.AddSingleton<ISlotClaims>(sp => new SlotClaimStore(sp.GetRequiredService<IStoreDatabase>(), Alerting.Outbox.ClaimOwner.OfWorker(config.Worker), time));
+        builder.Services.AddSingleton<SlotGroups>();
 
         // Runs the store cannot take wait in the spool; checks leave start markers there. The spool service turns
         // markers left by the previous process into interrupted runs before the scheduler (registered after it) starts.

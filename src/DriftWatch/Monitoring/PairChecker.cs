@@ -30,19 +30,30 @@ internal sealed class PairChecker(
     /// <summary>How many of a pair's latest runs are searched for one that already read the same load (anchor latest).</summary>
     public const int RepeatLookback = 50;
 
-    public Task<PairCheckResult> CheckAsync(PairConfig pair, CancellationToken cancellationToken) => CheckAsync(pair, null, cancellationToken);
+    public Task<PairCheckResult> CheckAsync(PairConfig pair, CancellationToken cancellationToken) => CheckAsync(pair, asOf: null, shared: null, cancellationToken);
 
     /// <param name="asOf">
     /// Check as of this past time (<c>check --as-of</c>): the window ends there (anchor now) or at the newest value at
     /// or before it (anchor latest), and the run is recorded at that time, marked back-dated (see <see cref="NewRun.BackDatedAt"/>).
     /// </param>
-    public async Task<PairCheckResult> CheckAsync(PairConfig pair, DateTimeOffset? asOf, CancellationToken cancellationToken)
+    public Task<PairCheckResult> CheckAsync(PairConfig pair, DateTimeOffset? asOf, CancellationToken cancellationToken) =>
+        CheckAsync(pair, asOf, shared: null, cancellationToken);
+
+    /// <summary>
+    /// With <paramref name="shared"/> the pair's rows come from its group's shared read (<see cref="TableGroups"/>)
+    /// instead of a read of its own, and the check starts when that read started, the anchor of its window.
+    /// A shared read is never back-dated: groups form only for checks of now.
+    /// </summary>
+    public Task<PairCheckResult> CheckAsync(PairConfig pair, SharedRead? shared, CancellationToken cancellationToken) =>
+        CheckAsync(pair, asOf: null, shared, cancellationToken);
+
+    private async Task<PairCheckResult> CheckAsync(PairConfig pair, DateTimeOffset? asOf, SharedRead? shared, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(pair);
         using var _ = LogContext.PushProperty("Pair", pair.Name);
         var madeAt = time.GetUtcNow();
         // The check's own time: what the window, the baseline and the comparisons are relative to, and where the run is recorded.
-        var startedAt = asOf ?? madeAt;
+        var startedAt = asOf ?? shared?.StartedAt ?? madeAt;
         if (await FindRepeatAsync(pair, startedAt, cancellationToken) is { } repeat)
         {
             return repeat;
@@ -62,7 +73,7 @@ internal sealed class PairChecker(
             var source = (live?.Current ?? config).FindSource(pair.Source)
                 ?? throw new SourceException(SourceFailure.QueryError, $"pair '{pair.Name}': source '{pair.Source}' is not configured");
             var adapter = sources.Create(source);
-            sampled = await adapter.SampleAsync(pair, startedAt, cancellationToken);
+            sampled = shared?.Read.Value ?? await adapter.SampleAsync(pair, startedAt, cancellationToken);
             profile = Profiler.Profile(sampled.Sample, pair.Thresholds);
             unmeasurable = Measurability.Assess(profile, sampled.Figures, pair.Thresholds, pair.X, pair.Y);
             if (unmeasurable is null)

@@ -10,7 +10,7 @@ namespace DriftWatch.Scheduling;
 /// and each pair has its own job, so a slow run of a pair delays that pair's next run instead of overlapping it.
 /// </summary>
 [DisallowConcurrentExecution]
-internal sealed class PairCheckJob(LiveConfig config, PairChecker checker, StopGrace stop, RunningChecks running, ILogger<PairCheckJob> logger) : IJob
+internal sealed class PairCheckJob(LiveConfig config, SlotGroups slots, StopGrace stop, RunningChecks running, ILogger<PairCheckJob> logger) : IJob
 {
     public const string PairKey = "pair";
 
@@ -27,12 +27,20 @@ internal sealed class PairCheckJob(LiveConfig config, PairChecker checker, StopG
 
         // A stop request does not cancel the check at once: it goes on until the grace runs out.
         using var linked = CancellationTokenSource.CreateLinkedTokenSource(cancellationToken, stop.Expired);
-        logger.LogDebug("Check of {Pair} started", pair.Name);
+        // The pairs of its table group due in the same slot are checked with it (one shared read); none when
+        // another pair's job already checked this one for the slot.
+        var pairs = await slots.ClaimAsync(pair, context.ScheduledFireTimeUtc, linked.Token);
+        if (pairs.Count == 0)
+        {
+            return;
+        }
+
+        logger.LogDebug("Check of {Pair} started ({Count} pairs of its table group)", pair.Name, pairs.Count);
         running.Started();
         bool last;
         try
         {
-            await checker.CheckAsync(pair, linked.Token);
+            await slots.CheckAsync(pairs, linked.Token);
         }
         finally
         {

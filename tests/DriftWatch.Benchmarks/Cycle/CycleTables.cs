@@ -13,7 +13,8 @@ namespace DriftWatch.Benchmarks.Cycle;
 /// </summary>
 internal sealed class CycleTables(string adminConnectionString, int tables, int rows)
 {
-    public const string Database = "dw_bench_cycle";
+    /// <summary>The database's name: DRIFTWATCH_BENCH_DB when set (several benchmark runs on one shared server), else dw_bench_cycle.</summary>
+    public static readonly string Database = Environment.GetEnvironmentVariable("DRIFTWATCH_BENCH_DB") is { Length: > 0 } name ? name : "dw_bench_cycle";
     public const int Columns = 20;
 
     /// <summary>Raise when the generated data changes, so an old database is rebuilt.</summary>

@@ -15,7 +15,7 @@ namespace DriftWatch.Sources.Postgres;
 /// session is rolled back at the end. At most <see cref="SourceConfig.MaxConcurrentQueries"/> checks of this
 /// source run at once.
 /// </summary>
-internal sealed class PostgresPairSource : IPairSource, IAsyncDisposable
+internal sealed partial class PostgresPairSource : IPairSource, IGroupSource, IAsyncDisposable
 {
     /// <summary>The application_name every source session carries, so a DBA can see and limit the monitor.</summary>
     public const string ApplicationName = "driftwatch";

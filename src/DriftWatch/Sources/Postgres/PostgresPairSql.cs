@@ -144,11 +144,11 @@ internal sealed class PostgresPairSql(PairTarget target, WindowRange? window, bo
     private static string Scaled(string value, double factor, double floor, PositionalParameters p) =>
         $"(CASE WHEN abs({value}) < {p.Add(floor, NpgsqlDbType.Double)} THEN 0::float8 ELSE {value} * {p.Add(factor, NpgsqlDbType.Double)} END)";
 
-    private string From() => target.Table is { } table ? table.Quoted : $"({target.Query}) AS q";
+    internal string From() => target.Table is { } table ? table.Quoted : $"({target.Query}) AS q";
 
-    private string Column(string quoted) => target.IsTable ? quoted : "q." + quoted;
+    internal string Column(string quoted) => target.IsTable ? quoted : "q." + quoted;
 
-    private string Where(PositionalParameters p, bool withWindow = true)
+    internal string Where(PositionalParameters p, bool withWindow = true)
     {
         var conditions = new List<string>();
         if (withWindow && target.WindowColumn is not null && window is not null)

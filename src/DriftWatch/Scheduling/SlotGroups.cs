@@ -1,0 +1,80 @@
+using DriftWatch.Core.Configuration;
+using DriftWatch.Hosting;
+using DriftWatch.Monitoring;
+using DriftWatch.Store;
+using Microsoft.Extensions.Logging;
+using Quartz;
+
+namespace DriftWatch.Scheduling;
+
+/// <summary>
+/// Grouping at execution time, one Quartz job per pair kept (live reload adds, removes and reschedules pairs
+/// one by one): when a pair's job runs for its scheduled slot T, it claims (<see cref="ISlotClaims"/>) its own
+/// slot and that of every pair of its table group (<see cref="TableGroups"/>) whose schedule also fires at T,
+/// and checks them with one shared read; those pairs' own jobs for T then find their claim taken and return.
+/// </summary>
+internal sealed class SlotGroups(LiveConfig config, TableGroups groups, ISlotClaims claims, ILogger<SlotGroups> logger)
+{
+    /// <summary>
+    /// The pairs this job checks for <paramref name="slot"/>: empty when <paramref name="pair"/>'s slot was already
+    /// claimed (checked with its group), else the pair and the pairs of its group it claimed. Without a slot (a job
+    /// started by hand) or when the store cannot take claims, the pair alone.
+    /// </summary>
+    public async Task<IReadOnlyList<PairConfig>> ClaimAsync(PairConfig pair, DateTimeOffset? slot, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(pair);
+        if (slot is not { } at)
+        {
+            return [pair];
+        }
+
+        try
+        {
+            if (!await claims.TryClaimAsync(pair.Name, at, cancellationToken))
+            {
+                logger.LogDebug("Slot {Slot:o} of {Pair} was checked with its table group", at, pair.Name);
+                return [];
+            }
+
+            var key = groups.KeyOf(pair);
+            var group = new List<PairConfig> { pair };
+            if (key is null)
+            {
+                return group;
+            }
+
+            foreach (var other in config.Current.Pairs)
+            {
+                if (other.Name != pair.Name && key.Equals(groups.KeyOf(other)) && FiresAt(other, at) && TableGroups.Fits(group, other)
+                    && await claims.TryClaimAsync(other.Name, at, cancellationToken))
+                {
+                    group.Add(other);
+                }
+            }
+
+            return group;
+        }
+        catch (Exception ex) when (ex is System.Data.Common.DbException or IOException or TimeoutException or System.Net.Sockets.SocketException)
+        {
+            // The store is out (runs go to the spool meanwhile): check the pair itself rather than skip its slot.
+            logger.LogWarning("Slot {Slot:o} of {Pair}: the store could not take the claim ({Error}); checking the pair alone", at, pair.Name, ex.Message);
+            return [pair];
+        }
+    }
+
+    /// <summary>Checks what <see cref="ClaimAsync"/> returned: one shared read for a group, else the pair's own check.</summary>
+    public Task<IReadOnlyList<PairCheckResult>> CheckAsync(IReadOnlyList<PairConfig> pairs, CancellationToken cancellationToken) =>
+        groups.CheckAsync(pairs, cancellationToken);
+
+    private static bool FiresAt(PairConfig pair, DateTimeOffset at)
+    {
+        try
+        {
+            return new CronExpression(pair.Schedule, TimeZoneInfo.Utc).IsSatisfiedBy(at);
+        }
+        catch (FormatException)
+        {
+            return false;
+        }
+    }
+}
