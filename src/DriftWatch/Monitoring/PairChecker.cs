@@ -109,7 +109,8 @@ internal sealed class PairChecker(
             logger.LogError(ex, "Check of {Pair} failed unexpectedly", pair.Name);
         }
 
-        var finishedAt = startedAt + (time.GetUtcNow() - madeAt);
+        // A check of now ends now (a shared read started before this pair's part of it); a back-dated one lasts as long after its as-of time.
+        var finishedAt = asOf is null ? time.GetUtcNow() : startedAt + (time.GetUtcNow() - madeAt);
         var status = error is not null ? RunStatus.Failed : unmeasurable is not null ? RunStatus.Unmeasurable : RunStatus.Succeeded;
         // An unmeasurable run keeps its profile and points: the counts (and any rows) are what people need to see.
         var measured = status != RunStatus.Failed;

@@ -1,3 +1,4 @@
+using System.Collections.Concurrent;
 using DriftWatch.Core.Configuration;
 using DriftWatch.Hosting;
 using DriftWatch.Monitoring;
@@ -62,9 +63,38 @@ internal sealed class SlotGroups(LiveConfig config, TableGroups groups, ISlotCla
         }
     }
 
-    /// <summary>Checks what <see cref="ClaimAsync"/> returned: one shared read for a group, else the pair's own check.</summary>
-    public Task<IReadOnlyList<PairCheckResult>> CheckAsync(IReadOnlyList<PairConfig> pairs, CancellationToken cancellationToken) =>
-        groups.CheckAsync(pairs, cancellationToken);
+    /// <summary>
+    /// Checks what <see cref="ClaimAsync"/> returned: one shared read for a group, else the pair's own check. A pair
+    /// still being checked by another job (its group's, for an earlier slot) is waited for first: Quartz keeps one
+    /// job from overlapping itself, but not a pair checked by another pair's job, and two checks of one pair at once
+    /// would both be recorded. The gates are taken in name order, so two groups waiting on each other cannot lock.
+    /// </summary>
+    public async Task<IReadOnlyList<PairCheckResult>> CheckAsync(IReadOnlyList<PairConfig> pairs, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(pairs);
+        var held = new List<SemaphoreSlim>(pairs.Count);
+        try
+        {
+            foreach (var name in pairs.Select(p => p.Name).Distinct(StringComparer.Ordinal).Order(StringComparer.Ordinal))
+            {
+                var gate = checking.GetOrAdd(name, _ => new SemaphoreSlim(1, 1));
+                await gate.WaitAsync(cancellationToken);
+                held.Add(gate);
+            }
+
+            return await groups.CheckAsync(pairs, cancellationToken);
+        }
+        finally
+        {
+            foreach (var gate in held)
+            {
+                gate.Release();
+            }
+        }
+    }
+
+    /// <summary>One gate per pair name: held while this worker checks the pair.</summary>
+    private readonly ConcurrentDictionary<string, SemaphoreSlim> checking = new(StringComparer.Ordinal);
 
     private static bool FiresAt(PairConfig pair, DateTimeOffset at)
     {

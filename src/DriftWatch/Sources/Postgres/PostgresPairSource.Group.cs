@@ -36,8 +36,9 @@ internal sealed partial class PostgresPairSource
         return await InSessionAsync(first, target, async (connection, ct) =>
         {
             await ExecuteAsync(connection, "SELECT set_config('jit', 'off', true)", _ => { }, ct);
-            var from = first.Window is null ? (DateTimeOffset?)null : now - first.Window.Last;
-            var shared = new PostgresPairSql(target, from, now);
+            // Pairs anchored on their newest load never share a read (TableGroups), so the window ends now.
+            var range = first.Window is null ? null : WindowRange.EndingAt(first.Window, now);
+            var shared = new PostgresPairSql(target, range);
             var all = targets.SelectMany(t => new[] { t.X, t.Y }).Distinct(StringComparer.Ordinal).ToList();
             var types = await ProbeGroupAsync(connection, new PostgresGroupSql(shared, target, all, [], new bool[all.Count]), all, first, target, ct);
 
@@ -114,7 +115,7 @@ internal sealed partial class PostgresPairSource
                     result[included[k]] = new Lazy<SampledPair>(() =>
                     {
                         var sample = rowsRead!.Pair(x, y, plan.Draw == SampleDraw.All ? 0 : spec.Rows);
-                        return new SampledPair(sample, f, Describe(plan, spec, sample));
+                        return new SampledPair(sample, f, Describe(plan, spec, sample)) { WindowEnd = range?.To };
                     });
                 }
             }
