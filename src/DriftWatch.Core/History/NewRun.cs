@@ -25,4 +25,7 @@ public sealed record NewRun(
     /// runs that are written once and only once (one-shot commands).
     /// </summary>
     public string? RunKey { get; init; }
+
+    /// <summary>The schedule slot (the trigger's scheduled time, UTC) the check ran for; null for checks not started by the schedule.</summary>
+    public DateTimeOffset? SlotAt { get; init; }
 }

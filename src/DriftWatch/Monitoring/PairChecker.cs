@@ -27,7 +27,10 @@ internal sealed class PairChecker(
     ILogger<PairChecker> logger,
     LiveConfig? live = null)
 {
-    public async Task<PairCheckResult> CheckAsync(PairConfig pair, CancellationToken cancellationToken)
+    public Task<PairCheckResult> CheckAsync(PairConfig pair, CancellationToken cancellationToken) => CheckAsync(pair, null, cancellationToken);
+
+    /// <param name="slot">The schedule slot this check is for (recorded with the run); null for checks not started by the schedule.</param>
+    public async Task<PairCheckResult> CheckAsync(PairConfig pair, DateTimeOffset? slot, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(pair);
         using var _ = LogContext.PushProperty("Pair", pair.Name);
@@ -99,6 +102,7 @@ internal sealed class PairChecker(
             sampled?.Method)
         {
             JudgedAgainst = status == RunStatus.Succeeded && baseline is not null ? BaselineSummary.Of(baseline) : null,
+            SlotAt = slot,
         };
         // The store, or the worker's spool when the store cannot take it (see RunRecorder).
         var runId = await recorder.RecordAsync(run with { RunKey = runKey });

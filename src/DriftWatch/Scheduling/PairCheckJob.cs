@@ -10,7 +10,14 @@ namespace DriftWatch.Scheduling;
 /// and each pair has its own job, so a slow run of a pair delays that pair's next run instead of overlapping it.
 /// </summary>
 [DisallowConcurrentExecution]
-internal sealed class PairCheckJob(LiveConfig config, PairChecker checker, StopGrace stop, RunningChecks running, ILogger<PairCheckJob> logger) : IJob
+internal sealed class PairCheckJob(
+    LiveConfig config,
+    PairChecker checker,
+    StopGrace stop,
+    RunningChecks running,
+    ILogger<PairCheckJob> logger,
+    Workers.LastCheck? lastCheck = null,
+    TimeProvider? time = null) : IJob
 {
     public const string PairKey = "pair";
 
@@ -29,10 +36,12 @@ internal sealed class PairCheckJob(LiveConfig config, PairChecker checker, StopG
         using var linked = CancellationTokenSource.CreateLinkedTokenSource(cancellationToken, stop.Expired);
         logger.LogDebug("Check of {Pair} started", pair.Name);
         running.Started();
+        lastCheck?.Started(pair.Name, (time ?? TimeProvider.System).GetUtcNow());
         bool last;
         try
         {
-            await checker.CheckAsync(pair, linked.Token);
+            // The run records the slot it was for, so "each slot checked once" can be read back from the store.
+            await checker.CheckAsync(pair, ScheduleSlot.Of(context), linked.Token);
         }
         finally
         {

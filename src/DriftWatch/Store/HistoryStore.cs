@@ -50,6 +50,13 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
             judgedValue += ", @RunKey";
         }
 
+        if (run.SlotAt is not null)
+        {
+            // Named only when there is one, like baseline_json: runs without a slot are written as before migration 010.
+            judged += ", slot_at_ms";
+            judgedValue += ", @SlotAtMs";
+        }
+
         var id = await connection.ExecuteScalarAsync<long>(new CommandDefinition(
             $"""
             INSERT INTO runs (pair, started_at_ms, finished_at_ms, status, error, sample_method, profile_json, source_figures_json, points{judged})
@@ -69,6 +76,7 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
                 FiguresJson = run.SourceFigures is null ? null : StoreJson.Serialize(run.SourceFigures),
                 Points = points,
                 run.RunKey,
+                SlotAtMs = run.SlotAt?.ToUnixTimeMilliseconds(),
             },
             transaction,
             cancellationToken: cancellationToken));

@@ -73,7 +73,7 @@ public abstract partial class AlertVocabularyMigrationContract : IAsyncLifetime
 
         // Every script after 005 runs, 007 (the owner of outbox claims) over the outbox rows this old store holds,
         // 008 (audit log, baseline resets) adding its empty tables, 009 the run keys.
-        Assert.Equal(["006_alert_vocabulary", "007_outbox_claims", "008_triage_audit", "009_run_keys"], applied);
+        Assert.Equal(["006_alert_vocabulary", "007_outbox_claims", "008_triage_audit", "009_run_keys", "010_several_workers"], applied);
         var store = new AlertStore(Database);
         var open = await store.GetOpenAlertsAsync(null, CancellationToken.None);
         Assert.Equal([(1L, AlertStatus.Watching), (2L, AlertStatus.Confirmed)], open.Select(a => (a.Id, a.Status)));
