@@ -64,6 +64,9 @@ public sealed class SharedScheduleTests(PostgresServer server)
             Assert.Contains(instances, i => i.GetProperty("last_pair").ValueKind == JsonValueKind.String);
         }
 
+        // The dashboard's overview shows the same workers.
+        Assert.Contains("Workers (3 alive)", await FaultBench.PageAsync(ports["w3"], "/"), StringComparison.Ordinal);
+
         // SIGKILL the worker running a check of "slow" while its query has just started sleeping.
         string? victim = null;
         await Eventually.TrueAsync("a check of slow just started", async _ =>

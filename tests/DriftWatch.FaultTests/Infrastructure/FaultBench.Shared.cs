@@ -32,9 +32,12 @@ public sealed partial class FaultBench
         }
     }
 
-    public static async Task<string> HealthBodyAsync(int port)
+    public static Task<string> HealthBodyAsync(int port) => PageAsync(port, "/healthz");
+
+    /// <summary>The body of a dashboard path of the worker on <paramref name="port"/>, whatever its status.</summary>
+    public static async Task<string> PageAsync(int port, string path)
     {
-        using var response = await Http.GetAsync(new Uri($"http://127.0.0.1:{port}/healthz"));
+        using var response = await Http.GetAsync(new Uri($"http://127.0.0.1:{port}{path}"));
         return await response.Content.ReadAsStringAsync();
     }
 

@@ -70,7 +70,8 @@ internal sealed class HealthCheck(
         };
     }
 
-    private async Task<WorkersHealth?> WorkersAsync(CancellationToken cancellationToken)
+    /// <summary>The workers on this store (also the overview page's small table); null when the store cannot tell.</summary>
+    public async Task<WorkersHealth?> WorkersAsync(CancellationToken cancellationToken)
     {
         if (instances is null)
         {
