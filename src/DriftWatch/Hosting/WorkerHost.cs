@@ -56,6 +56,7 @@ internal static class WorkerHost
         builder.Services.AddSingleton<Workers.LastCheck>();
         builder.Services.AddSingleton(sp => new Store.WorkerInstances(sp.GetRequiredService<Store.IStoreDatabase>()));
         builder.Services.AddSingleton(sp => new Store.WorkerLeases(sp.GetRequiredService<Store.IStoreDatabase>()));
+        builder.Services.AddSingleton(sp => new Store.RunSlots(sp.GetRequiredService<Store.IStoreDatabase>()));
         builder.Services.AddSingleton<Workers.ExclusiveWork>();
         builder.Services.AddHostedService<Workers.HeartbeatService>();
         builder.Services.AddQuartz(quartz =>

@@ -17,7 +17,8 @@ internal sealed class PairCheckJob(
     RunningChecks running,
     ILogger<PairCheckJob> logger,
     Workers.LastCheck? lastCheck = null,
-    TimeProvider? time = null) : IJob
+    TimeProvider? time = null,
+    Store.RunSlots? slots = null) : IJob
 {
     public const string PairKey = "pair";
 
@@ -32,6 +33,14 @@ internal sealed class PairCheckJob(
             return;
         }
 
+        var slot = ScheduleSlot.Of(context);
+        if (context.Recovering && slot is { } due && slots is not null && await slots.IsRecordedAsync(pair.Name, due, cancellationToken))
+        {
+            // The worker that died had recorded this slot's run before the scheduler could mark the firing done.
+            logger.LogInformation("Check of {Pair} for the slot {Slot:u} is already recorded; the recovered firing is not run again", pair.Name, due);
+            return;
+        }
+
         // A stop request does not cancel the check at once: it goes on until the grace runs out.
         using var linked = CancellationTokenSource.CreateLinkedTokenSource(cancellationToken, stop.Expired);
         logger.LogDebug("Check of {Pair} started", pair.Name);
@@ -41,7 +50,7 @@ internal sealed class PairCheckJob(
         try
         {
             // The run records the slot it was for, so "each slot checked once" can be read back from the store.
-            await checker.CheckAsync(pair, ScheduleSlot.Of(context), linked.Token);
+            await checker.CheckAsync(pair, slot, linked.Token);
         }
         finally
         {
