@@ -42,7 +42,15 @@ internal static class PairSchedules
         foreach (var pair in changes.Removed)
         {
             // A check of the pair already running finishes and is recorded; no new one starts.
-            await scheduler.DeleteJob(JobKeyOf(pair.Name), cancellationToken);
+            if (shared)
+            {
+                await StoredSchedules.DeleteSharedAsync(scheduler, JobKeyOf(pair.Name), cancellationToken);
+            }
+            else
+            {
+                await scheduler.DeleteJob(JobKeyOf(pair.Name), cancellationToken);
+            }
+
             logger.LogInformation("Reload: pair {Pair} removed; it is no longer checked", pair.Name);
         }
 

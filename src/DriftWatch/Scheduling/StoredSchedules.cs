@@ -33,7 +33,7 @@ internal sealed class StoredSchedules(ISchedulerFactory factory, LiveConfig live
         var wanted = config.Pairs.ToDictionary(p => p.Name, StringComparer.Ordinal);
         foreach (var stored in await scheduler.GetJobKeys(GroupMatcher<JobKey>.GroupEquals(PairSchedules.Group), cancellationToken))
         {
-            if (!wanted.ContainsKey(stored.Name) && await scheduler.DeleteJob(stored, cancellationToken))
+            if (!wanted.ContainsKey(stored.Name) && await DeleteSharedAsync(scheduler, stored, cancellationToken))
             {
                 logger.LogInformation("Shared schedule: pair {Pair} is not in the configuration; its stored job was deleted", stored.Name);
             }
@@ -46,6 +46,28 @@ internal sealed class StoredSchedules(ISchedulerFactory factory, LiveConfig live
 
         await EnsureIntervalAsync(scheduler, SchedulingSetup.AlertJobKey, JobBuilder.Create<AlertCycleJob>().WithIdentity(SchedulingSetup.AlertJobKey).WithDescription("evaluate alerts and deliver the outbox").Build(), config.Worker.AlertEvery, cancellationToken);
         await EnsureIntervalAsync(scheduler, MaintenanceJobKey, JobBuilder.Create<StoreMaintenanceJob>().WithIdentity(MaintenanceJobKey).WithDescription("apply the store's retention").Build(), StoreMaintenanceJob.Every, cancellationToken);
+    }
+
+    /// <summary>
+    /// Deletes a stored job; true when this call deleted it. Another worker applying the same change may delete it at
+    /// the same moment, and Quartz then reports that it could not unschedule the trigger: a job already gone is fine.
+    /// </summary>
+    public static async Task<bool> DeleteSharedAsync(IScheduler scheduler, JobKey key, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(scheduler);
+        try
+        {
+            return await scheduler.DeleteJob(key, cancellationToken);
+        }
+        catch (SchedulerException)
+        {
+            if (await scheduler.GetJobDetail(key, cancellationToken) is not null)
+            {
+                throw;
+            }
+
+            return false;
+        }
     }
 
     /// <summary>Writes the pair's job and trigger unless the stored ones already say the same; true when it wrote.</summary>
