@@ -37,4 +37,7 @@ public sealed record NewRun(
     /// Such runs are history and baseline material, never alert evidence. Null for runs made at their own time.
     /// </summary>
     public DateTimeOffset? BackDatedAt { get; init; }
+
+    /// <summary>The schedule slot (the trigger's scheduled time, UTC) the check ran for; null for checks not started by the schedule.</summary>
+    public DateTimeOffset? SlotAt { get; init; }
 }

@@ -67,7 +67,7 @@ internal static class ConfigKeys
 
     public static readonly KeyLevel WorkerSpool = new("worker.spool", ["path", "max_runs", "max_bytes"]);
 
-    public static readonly KeyLevel Worker = new("worker", ("stop_grace", null), ("id", null), ("alert_every", null), ("spool", WorkerSpool));
+    public static readonly KeyLevel Worker = new("worker", ("stop_grace", null), ("id", null), ("alert_every", null), ("shared_schedule", null), ("heartbeat", null), ("takeover_after", null), ("spool", WorkerSpool));
 
     public static readonly KeyLevel Root = new(
         "root",

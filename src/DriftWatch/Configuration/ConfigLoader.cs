@@ -114,7 +114,7 @@ internal static class ConfigLoader
         var pairs = PairsSection.Read(root, defaults, sources, declaredSources, declaredLists, store);
         var dashboard = DashboardSection.Read(root.Mapping("dashboard", ConfigKeys.Dashboard));
         var logging = LoggingSection.Read(root.Mapping("logging", ConfigKeys.Logging));
-        var worker = WorkerSection.Read(context, root.Mapping("worker", ConfigKeys.Worker));
+        var worker = WorkerSection.Read(context, root.Mapping("worker", ConfigKeys.Worker), store);
         root.Done();
         return new DriftWatchConfig
         {

@@ -20,7 +20,16 @@ internal static class WorkerSection
     /// <summary>A spool smaller than this cannot hold one run with its points.</summary>
     public const long MinSpoolBytes = 1024 * 1024;
 
-    public static WorkerConfig Read(ConfigContext context, MappingReader? reader)
+    /// <summary>Cron slots are a second apart at the finest; beating more often only loads the store.</summary>
+    public static readonly TimeSpan MinHeartbeat = TimeSpan.FromSeconds(1);
+
+    public static readonly TimeSpan MaxHeartbeat = TimeSpan.FromMinutes(5);
+
+    /// <summary>Room for scheduling delays: a takeover sooner than this would take over live workers.</summary>
+    public const int MinBeatsBeforeTakeover = 2;
+
+    /// <param name="store">The store section, read before: a shared schedule needs PostgreSQL.</param>
+    public static WorkerConfig Read(ConfigContext context, MappingReader? reader, StoreConfig? store = null)
     {
         ArgumentNullException.ThrowIfNull(context);
         // The spool's folder is always resolved here, where relative paths have the configuration file's folder to start from.
@@ -39,10 +48,29 @@ internal static class WorkerSection
         }
 
         var alertEvery = reader.Duration("alert_every", MinAlertEvery, MaxAlertEvery) ?? defaults.AlertEvery;
+        var shared = reader.Bool("shared_schedule") ?? false;
+        if (shared && store is { Kind: not StoreKind.Postgres })
+        {
+            reader.Error("shared_schedule", "needs a PostgreSQL store (store.kind: postgres): the shared schedule lives in the store's database");
+        }
+
+        var heartbeat = reader.Duration("heartbeat", MinHeartbeat, MaxHeartbeat) ?? defaults.Heartbeat;
+        var takeover = reader.Duration("takeover_after", MinHeartbeat * MinBeatsBeforeTakeover, TimeSpan.FromHours(1)) ?? defaults.TakeoverAfter;
+        if (takeover < heartbeat * MinBeatsBeforeTakeover)
+        {
+            reader.Error("takeover_after", $"must be at least {MinBeatsBeforeTakeover} heartbeats ({DurationText(heartbeat * MinBeatsBeforeTakeover)}), was {DurationText(takeover)}");
+            takeover = heartbeat * MinBeatsBeforeTakeover;
+        }
+
         var spool = ReadSpool(context, reader.Mapping("spool", ConfigKeys.WorkerSpool));
         reader.Done();
-        return new WorkerConfig { StopGrace = grace, Id = id, Spool = spool, AlertEvery = alertEvery };
+        return new WorkerConfig
+        {
+            StopGrace = grace, Id = id, Spool = spool, AlertEvery = alertEvery, SharedSchedule = shared, Heartbeat = heartbeat, TakeoverAfter = takeover,
+        };
     }
+
+    private static string DurationText(TimeSpan value) => value.TotalSeconds.ToString("0.###", System.Globalization.CultureInfo.InvariantCulture) + "s";
 
     private static WorkerSpoolConfig ReadSpool(ConfigContext context, MappingReader? reader)
     {

@@ -62,7 +62,8 @@ internal static class DashboardEndpoints
             var rows = await reader.GetOverviewAsync(ct);
             var query = http.Request.Query;
             var filter = new OverviewFilter(Text(query["status"]), Text(query["source"]), Text(query["tag"]), Text(query["q"]));
-            return (StatusCodes.Status200OK, OverviewPage.Render(Context(http, access, reader), rows, filter));
+            var workers = await health.WorkersAsync(ct);
+            return (StatusCodes.Status200OK, OverviewPage.Render(Context(http, access, reader), rows, filter, workers));
         }));
 
         guarded.MapGet("/pairs/{name}", (HttpContext http, string name, CancellationToken ct) => Page(http, logger, reader.Time, async () =>

@@ -44,7 +44,9 @@ internal static class DashboardServices
             sp.GetRequiredService<IHistoryStore>(),
             sp.GetRequiredService<TimeProvider>(),
             sp.GetService<IWorkerHealth>(),
-            sp.GetService<IWorkerStatus>()));
+            sp.GetService<IWorkerStatus>(),
+            new WorkerInstances(sp.GetRequiredService<IStoreDatabase>()),
+            sp.GetRequiredService<DriftWatchConfig>().Worker.TakeoverAfter));
         return services;
     }
 }

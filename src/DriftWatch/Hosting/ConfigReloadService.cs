@@ -163,7 +163,7 @@ internal sealed class ConfigReloadService(LiveConfig live, ISchedulerFactory sch
         var scheduler = await schedulers.GetScheduler(cancellationToken);
         // The configuration goes in force before the schedule changes, so a pair added is known when its job first runs.
         live.Apply(ConfigChanges.Effective(current, loaded.Config!), hash, now);
-        await PairSchedules.ApplyAsync(scheduler, changes, logger, cancellationToken);
+        await PairSchedules.ApplyAsync(scheduler, changes, logger, cancellationToken, shared: current.Worker.SharedSchedule);
         logger.LogInformation("Reload ({Reason}): configuration {Hash} in force ({Pairs} pairs){Nothing}", reason, hash[..12], loaded.Config!.Pairs.Count, changes.IsEmpty ? ", nothing changed" : string.Empty);
     }
 

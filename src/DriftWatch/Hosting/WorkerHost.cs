@@ -53,11 +53,35 @@ internal static class WorkerHost
         builder.Services.AddSingleton<SpoolDrain>();
         builder.Services.AddHostedService<SpoolService>();
         builder.Services.AddHostedService<ConfigReloadService>();
+
+        // This process among the workers on the store: its heartbeat row, its leases, its Quartz instance id.
+        var identity = Workers.WorkerIdentity.Create(config.Worker, time.GetUtcNow());
+        builder.Services.AddSingleton(identity);
+        builder.Services.AddSingleton<Workers.LastCheck>();
+        builder.Services.AddSingleton(sp => new Store.WorkerInstances(sp.GetRequiredService<Store.IStoreDatabase>()));
+        builder.Services.AddSingleton(sp => new Store.WorkerLeases(sp.GetRequiredService<Store.IStoreDatabase>()));
+        builder.Services.AddSingleton(sp => new Store.RunSlots(sp.GetRequiredService<Store.IStoreDatabase>()));
+        builder.Services.AddSingleton<Workers.ExclusiveWork>();
+        builder.Services.AddHostedService<Workers.HeartbeatService>();
         builder.Services.AddQuartz(quartz =>
         {
             quartz.UseTimeProvider(time);
-            SchedulingSetup.AddPairSchedules(quartz, config, options.AlertEvery ?? config.Worker.AlertEvery);
+            if (config.Worker.SharedSchedule)
+            {
+                // The jobs live in the store; StoredSchedules (below) reconciles them with the configuration.
+                SharedSchedule.Configure(quartz, config, identity);
+            }
+            else
+            {
+                SchedulingSetup.AddPairSchedules(quartz, config, options.AlertEvery ?? config.Worker.AlertEvery);
+            }
         });
+        if (config.Worker.SharedSchedule)
+        {
+            // Registered before Quartz's hosted service: the stored jobs match the configuration before the scheduler starts.
+            builder.Services.AddHostedService<StoredSchedules>();
+        }
+
         builder.Services.AddQuartzHostedService(q =>
         {
             // SIGTERM: running checks get the grace period to finish (StopGrace), then their tokens are cancelled.

@@ -47,7 +47,15 @@ internal sealed class PairChecker(
     public Task<PairCheckResult> CheckAsync(PairConfig pair, SharedRead? shared, CancellationToken cancellationToken) =>
         CheckAsync(pair, asOf: null, shared, cancellationToken);
 
-    private async Task<PairCheckResult> CheckAsync(PairConfig pair, DateTimeOffset? asOf, SharedRead? shared, CancellationToken cancellationToken)
+    /// <summary>A scheduled check: as with <paramref name="shared"/> above, and the run records the schedule <paramref name="slot"/> it was for.</summary>
+    /// <param name="slot">The schedule slot this check is for (recorded with the run); null for checks not started by the schedule.</param>
+    public Task<PairCheckResult> CheckSlotAsync(PairConfig pair, SharedRead? shared, DateTimeOffset? slot, CancellationToken cancellationToken) =>
+        CheckAsync(pair, asOf: null, shared, slot, cancellationToken);
+
+    private Task<PairCheckResult> CheckAsync(PairConfig pair, DateTimeOffset? asOf, SharedRead? shared, CancellationToken cancellationToken) =>
+        CheckAsync(pair, asOf, shared, slot: null, cancellationToken);
+
+    private async Task<PairCheckResult> CheckAsync(PairConfig pair, DateTimeOffset? asOf, SharedRead? shared, DateTimeOffset? slot, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(pair);
         using var _ = LogContext.PushProperty("Pair", pair.Name);
@@ -129,6 +137,7 @@ internal sealed class PairChecker(
             JudgedAgainst = status == RunStatus.Succeeded && baseline is not null ? BaselineSummary.Of(baseline) : null,
             WindowEnd = sampled?.WindowEnd,
             BackDatedAt = asOf is null ? null : madeAt,
+            SlotAt = slot,
         };
         // The store, or the worker's spool when the store cannot take it (see RunRecorder).
         var runId = await recorder.RecordAsync(run with { RunKey = runKey });

@@ -74,14 +74,18 @@ internal sealed class TableGroups(PairChecker checker, ISourceFactory sources, D
     }
 
     /// <summary>Checks one group (from <see cref="Split"/>); results in the group's order.</summary>
-    public async Task<IReadOnlyList<PairCheckResult>> CheckAsync(IReadOnlyList<PairConfig> group, CancellationToken cancellationToken)
+    public Task<IReadOnlyList<PairCheckResult>> CheckAsync(IReadOnlyList<PairConfig> group, CancellationToken cancellationToken) =>
+        CheckAsync(group, slot: null, cancellationToken);
+
+    /// <summary>As above, for a schedule slot: each run records the <paramref name="slot"/> it was for.</summary>
+    public async Task<IReadOnlyList<PairCheckResult>> CheckAsync(IReadOnlyList<PairConfig> group, DateTimeOffset? slot, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(group);
         var reads = group.Count > 1 ? await ReadAsync(group, cancellationToken) : null;
         var results = new PairCheckResult[group.Count];
         for (var i = 0; i < group.Count; i++)
         {
-            results[i] = await checker.CheckAsync(group[i], reads?[i], cancellationToken);
+            results[i] = await checker.CheckSlotAsync(group[i], reads?[i], slot, cancellationToken);
             if (reads is not null)
             {
                 // The pair's sample is recorded: let it go before the next pair's is taken out.

@@ -10,7 +10,15 @@ namespace DriftWatch.Scheduling;
 /// and each pair has its own job, so a slow run of a pair delays that pair's next run instead of overlapping it.
 /// </summary>
 [DisallowConcurrentExecution]
-internal sealed class PairCheckJob(LiveConfig config, SlotGroups slots, StopGrace stop, RunningChecks running, ILogger<PairCheckJob> logger) : IJob
+internal sealed class PairCheckJob(
+    LiveConfig config,
+    SlotGroups groups,
+    StopGrace stop,
+    RunningChecks running,
+    ILogger<PairCheckJob> logger,
+    Workers.LastCheck? lastCheck = null,
+    TimeProvider? time = null,
+    Store.RunSlots? recorded = null) : IJob
 {
     public const string PairKey = "pair";
 
@@ -25,11 +33,20 @@ internal sealed class PairCheckJob(LiveConfig config, SlotGroups slots, StopGrac
             return;
         }
 
+        var slot = ScheduleSlot.Of(context);
+        if (context.Recovering && slot is { } due && recorded is not null && await recorded.IsRecordedAsync(pair.Name, due, cancellationToken))
+        {
+            // The worker that died had recorded this slot's run before the scheduler could mark the firing done.
+            logger.LogInformation("Check of {Pair} for the slot {Slot:u} is already recorded; the recovered firing is not run again", pair.Name, due);
+            return;
+        }
+
         // A stop request does not cancel the check at once: it goes on until the grace runs out.
         using var linked = CancellationTokenSource.CreateLinkedTokenSource(cancellationToken, stop.Expired);
         // The pairs of its table group due in the same slot are checked with it (one shared read); none when
         // another pair's job already checked this one for the slot.
-        var pairs = await slots.ClaimAsync(pair, context.ScheduledFireTimeUtc, linked.Token);
+        // A recovered firing (its worker died mid-check) took its claim before it died: it checks its own pair alone.
+        var pairs = await groups.ClaimAsync(pair, context.Recovering ? null : slot, linked.Token);
         if (pairs.Count == 0)
         {
             return;
@@ -37,10 +54,12 @@ internal sealed class PairCheckJob(LiveConfig config, SlotGroups slots, StopGrac
 
         logger.LogDebug("Check of {Pair} started ({Count} pairs of its table group)", pair.Name, pairs.Count);
         running.Started();
+        lastCheck?.Started(pair.Name, (time ?? TimeProvider.System).GetUtcNow());
         bool last;
         try
         {
-            await slots.CheckAsync(pairs, linked.Token);
+            // The runs record the slot they were for, so "each slot checked once" can be read back from the store.
+            await groups.CheckAsync(pairs, slot, linked.Token);
         }
         finally
         {

@@ -30,7 +30,11 @@ internal static class PairSchedules
         TriggerBuilder.Create().ForJob(JobKeyOf(pair.Name)).WithIdentity(TriggerKeyOf(pair.Name)).WithSchedule(Cron(pair)).Build();
 
     /// <summary>Brings the running scheduler in line with <paramref name="changes"/>; one log line per change.</summary>
-    public static async Task ApplyAsync(IScheduler scheduler, ConfigChanges changes, ILogger logger, CancellationToken cancellationToken)
+    /// <param name="shared">
+    /// A shared schedule (<see cref="SharedSchedule"/>): the other workers reload the same file and may have stored the
+    /// change already, so added and rescheduled pairs are written only where the stored job differs.
+    /// </param>
+    public static async Task ApplyAsync(IScheduler scheduler, ConfigChanges changes, ILogger logger, CancellationToken cancellationToken, bool shared = false)
     {
         ArgumentNullException.ThrowIfNull(scheduler);
         ArgumentNullException.ThrowIfNull(changes);
@@ -38,11 +42,28 @@ internal static class PairSchedules
         foreach (var pair in changes.Removed)
         {
             // A check of the pair already running finishes and is recorded; no new one starts.
-            await scheduler.DeleteJob(JobKeyOf(pair.Name), cancellationToken);
+            if (shared)
+            {
+                await StoredSchedules.DeleteSharedAsync(scheduler, JobKeyOf(pair.Name), cancellationToken);
+            }
+            else
+            {
+                await scheduler.DeleteJob(JobKeyOf(pair.Name), cancellationToken);
+            }
+
             logger.LogInformation("Reload: pair {Pair} removed; it is no longer checked", pair.Name);
         }
 
-        foreach (var pair in changes.Added)
+        if (shared)
+        {
+            foreach (var pair in changes.Added.Concat(changes.Rescheduled))
+            {
+                await StoredSchedules.EnsurePairAsync(scheduler, pair, logger, cancellationToken);
+                logger.LogInformation("Reload: pair {Pair} checked on schedule {Schedule}", pair.Name, pair.Schedule);
+            }
+        }
+
+        foreach (var pair in shared ? Array.Empty<PairConfig>() : changes.Added)
         {
             var job = JobBuilder.Create<PairCheckJob>()
                 .WithIdentity(JobKeyOf(pair.Name))
@@ -53,7 +74,7 @@ internal static class PairSchedules
             logger.LogInformation("Reload: pair {Pair} added, schedule {Schedule}, first check {Next:u}", pair.Name, pair.Schedule, next);
         }
 
-        foreach (var pair in changes.Rescheduled)
+        foreach (var pair in shared ? Array.Empty<PairConfig>() : changes.Rescheduled)
         {
             var next = await scheduler.RescheduleJob(TriggerKeyOf(pair.Name), Trigger(pair), cancellationToken);
             logger.LogInformation("Reload: pair {Pair} rescheduled to {Schedule}, next check {Next:u}", pair.Name, pair.Schedule, next);

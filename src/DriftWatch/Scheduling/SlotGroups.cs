@@ -69,7 +69,7 @@ internal sealed class SlotGroups(LiveConfig config, TableGroups groups, ISlotCla
     /// job from overlapping itself, but not a pair checked by another pair's job, and two checks of one pair at once
     /// would both be recorded. The gates are taken in name order, so two groups waiting on each other cannot lock.
     /// </summary>
-    public async Task<IReadOnlyList<PairCheckResult>> CheckAsync(IReadOnlyList<PairConfig> pairs, CancellationToken cancellationToken)
+    public async Task<IReadOnlyList<PairCheckResult>> CheckAsync(IReadOnlyList<PairConfig> pairs, DateTimeOffset? slot, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(pairs);
         var held = new List<SemaphoreSlim>(pairs.Count);
@@ -82,7 +82,7 @@ internal sealed class SlotGroups(LiveConfig config, TableGroups groups, ISlotCla
                 held.Add(gate);
             }
 
-            return await groups.CheckAsync(pairs, cancellationToken);
+            return await groups.CheckAsync(pairs, slot, cancellationToken);
         }
         finally
         {

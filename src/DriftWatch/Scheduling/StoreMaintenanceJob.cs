@@ -20,11 +20,25 @@ internal sealed class StoreMaintenanceJob(
     IOutboxStore outbox,
     OutboxOptions outboxOptions,
     TimeProvider time,
-    ILogger<StoreMaintenanceJob> logger) : IJob
+    ILogger<StoreMaintenanceJob> logger,
+    Workers.ExclusiveWork? exclusive = null) : IJob
 {
     public static readonly TimeSpan Every = TimeSpan.FromHours(1);
 
     public async ValueTask Execute(IJobExecutionContext context, CancellationToken cancellationToken)
+    {
+        // Several workers on one store: the retention is applied by one of them at a time (the others skip this hour).
+        if (exclusive is null)
+        {
+            await ApplyRetentionAsync(cancellationToken);
+        }
+        else
+        {
+            await exclusive.TryRunAsync(Workers.ExclusiveWork.StoreMaintenance, ApplyRetentionAsync, cancellationToken);
+        }
+    }
+
+    private async Task ApplyRetentionAsync(CancellationToken cancellationToken)
     {
         var now = time.GetUtcNow();
         var deleted = await history.PruneAsync(now - config.Store.Retention, now - config.Store.PointsRetention, cancellationToken);

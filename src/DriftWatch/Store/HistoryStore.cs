@@ -31,6 +31,13 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
         var points = run.Points is null ? null : PointsCodec.Encode(PointsCodec.Thin(run.Points, pointsPerRun));
         await using var connection = await database.OpenAsync(cancellationToken);
         await using var transaction = await connection.BeginTransactionAsync(cancellationToken);
+        if (database.Dialect == StoreDialect.Postgres)
+        {
+            // Held until commit: the alert feed reads only when no run is being inserted (RunFeed.RecordLockKey).
+            await connection.ExecuteAsync(new CommandDefinition(
+                "SELECT pg_advisory_xact_lock_shared(@key)", new { key = RunFeed.RecordLockKey }, transaction, cancellationToken: cancellationToken));
+        }
+
         // baseline_json is named only when there is one to write, so a run without a baseline is written by the
         // same statement a store before migration 005 took.
         var judged = run.JudgedAgainst is null ? string.Empty : ", baseline_json";
@@ -64,6 +71,13 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
             judgedValue += ", @RunKey";
         }
 
+        if (run.SlotAt is not null)
+        {
+            // Named only when there is one, like baseline_json: runs without a slot are written as before migration 010.
+            judged += ", slot_at_ms";
+            judgedValue += ", @SlotAtMs";
+        }
+
         var id = await connection.ExecuteScalarAsync<long>(new CommandDefinition(
             $"""
             INSERT INTO runs (pair, started_at_ms, finished_at_ms, status, error, sample_method, profile_json, source_figures_json, points{judged})
@@ -85,6 +99,7 @@ internal sealed class HistoryStore(IStoreDatabase database, int pointsPerRun = S
                 run.RunKey,
                 WindowEndMs = run.WindowEnd?.ToUnixTimeMilliseconds(),
                 BackDatedAtMs = run.BackDatedAt?.ToUnixTimeMilliseconds(),
+                SlotAtMs = run.SlotAt?.ToUnixTimeMilliseconds(),
             },
             transaction,
             cancellationToken: cancellationToken));

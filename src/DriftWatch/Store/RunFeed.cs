@@ -12,6 +12,15 @@ internal sealed class RunFeed(IStoreDatabase database)
 {
     public const string AlertsWatermarkKey = "alerts.last_run_id";
 
+    /// <summary>
+    /// PostgreSQL advisory lock between recording runs (shared, for the insert's transaction) and reading the feed
+    /// (exclusive, for the read). Ids come from a sequence, and with several writers a run can commit after a run
+    /// with a higher id; a reader that saw the higher one would move its watermark past the lower one for good.
+    /// Reading under the exclusive lock waits for every insert in flight, so the ids it sees have no hole that a
+    /// later commit could fill. SQLite serialises its writers, so ids there commit in order.
+    /// </summary>
+    internal const long RecordLockKey = 0x44_72_69_66_74_57_02;
+
     public async Task<long> GetWatermarkAsync(string key, CancellationToken cancellationToken)
     {
         await using var connection = await database.OpenAsync(cancellationToken);
@@ -64,10 +73,20 @@ internal sealed class RunFeed(IStoreDatabase database)
     public async Task<IReadOnlyList<(long Id, string Pair)>> GetRunsAfterAsync(long afterId, int limit, CancellationToken cancellationToken)
     {
         await using var connection = await database.OpenAsync(cancellationToken);
+        await using var transaction = await connection.BeginTransactionAsync(cancellationToken);
+        if (database.Dialect == StoreDialect.Postgres)
+        {
+            await connection.ExecuteAsync(new CommandDefinition(
+                "SELECT pg_advisory_xact_lock(@key)", new { key = RecordLockKey }, transaction, cancellationToken: cancellationToken));
+        }
+
         var rows = await connection.QueryAsync<(long, string)>(new CommandDefinition(
             "SELECT id, pair FROM runs WHERE id > @afterId AND back_dated_at_ms IS NULL ORDER BY id LIMIT @limit",
             new { afterId, limit },
+            transaction,
             cancellationToken: cancellationToken));
-        return [.. rows];
+        var list = rows.ToList();
+        await transaction.CommitAsync(cancellationToken);
+        return list;
     }
 }

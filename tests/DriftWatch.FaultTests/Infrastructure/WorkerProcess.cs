@@ -30,7 +30,18 @@ public sealed class WorkerProcess : IDisposable
     /// <summary>Everything the process wrote to standard output and error so far.</summary>
     public IReadOnlyList<string> Output => [.. _output];
 
-    public static WorkerProcess Start(string configPath, params string[] command)
+    public static WorkerProcess Start(string configPath, params string[] command) => Start(configPath, null, command);
+
+    /// <summary>What a worker of a shared-schedule bench reads from its environment (see <see cref="WorkerSetup.Shared"/>).</summary>
+    public static IReadOnlyDictionary<string, string> SharedEnvironment(string workerId, int dashboardPort, string spoolFolder) =>
+        new Dictionary<string, string>
+        {
+            ["DW_TEST_WORKER"] = workerId,
+            ["DW_TEST_PORT"] = dashboardPort.ToString(CultureInfo.InvariantCulture),
+            ["DW_TEST_SPOOL"] = spoolFolder,
+        };
+
+    public static WorkerProcess Start(string configPath, IReadOnlyDictionary<string, string>? environment, params string[] command)
     {
         var dll = Path.Combine(AppContext.BaseDirectory, "driftwatch.dll");
         var info = new ProcessStartInfo("dotnet")
@@ -40,6 +51,11 @@ public sealed class WorkerProcess : IDisposable
             UseShellExecute = false,
             WorkingDirectory = Path.GetDirectoryName(configPath)!,
         };
+        foreach (var (name, value) in environment ?? new Dictionary<string, string>())
+        {
+            info.Environment[name] = value;
+        }
+
         foreach (var arg in (string[])["exec", dll, .. (command.Length == 0 ? ["run"] : command), "--config", configPath])
         {
             info.ArgumentList.Add(arg);

@@ -4,7 +4,8 @@ using System.Text;
 namespace DriftWatch.FaultTests.Infrastructure;
 
 /// <summary>One watched pair of the bench's source: a table or view with columns km and litres.</summary>
-public sealed record PairSpec(string Name, string Table, string Schedule = "* * * * * ?");
+/// <param name="Declared">Rendered as the pair's <c>declared:</c> flow mapping when given (for example <c>{direction: negative}</c>).</param>
+public sealed record PairSpec(string Name, string Table, string Schedule = "* * * * * ?", string? Declared = null);
 
 /// <summary>
 /// What the bench writes as the worker's YAML. A record, so a fault that edits the configuration (a live reload)
@@ -26,6 +27,13 @@ public sealed record WorkerSetup
 
     /// <summary>Appended verbatim at the end (top-level sections the bench does not write itself).</summary>
     public string ExtraYaml { get; init; } = string.Empty;
+
+    /// <summary>
+    /// Several workers on one file (<c>worker.shared_schedule</c>): each process gets its dashboard port, worker id and
+    /// spool folder from its environment (<see cref="WorkerProcess.SharedEnvironment"/>), so the file, and its hash, is
+    /// the same for all of them.
+    /// </summary>
+    public bool Shared { get; init; }
 
     public string Render(string sourceConnection, string storeConnection, int smtpPort, int dashboardPort)
     {
@@ -53,6 +61,10 @@ public sealed record WorkerSetup
                     schedule: "{pair.Schedule}"
 
                 """);
+            if (pair.Declared is not null)
+            {
+                yaml.Append(CultureInfo.InvariantCulture, $"    declared: {pair.Declared}\n");
+            }
         }
 
         yaml.Append(CultureInfo.InvariantCulture, $"""
@@ -70,13 +82,25 @@ public sealed record WorkerSetup
             dashboard:
               enabled: true
               bind: 127.0.0.1
-              port: {dashboardPort}
+              port: {(Shared ? "${DW_TEST_PORT}" : dashboardPort.ToString(CultureInfo.InvariantCulture))}
             worker:
-              id: fault-bench
+              id: {(Shared ? "${DW_TEST_WORKER}" : "fault-bench")}
               stop_grace: {StopGrace}
               alert_every: {AlertEvery}
 
             """);
+        if (Shared)
+        {
+            yaml.Append("""
+                  shared_schedule: true
+                  heartbeat: 1s
+                  takeover_after: 5s
+                  spool:
+                    path: ${DW_TEST_SPOOL}
+
+                """);
+        }
+
         yaml.Append(ExtraYaml);
         return yaml.ToString();
     }

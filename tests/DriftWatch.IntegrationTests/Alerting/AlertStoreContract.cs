@@ -24,9 +24,9 @@ public abstract class AlertStoreContract
         var versions = await connection.QueryAsync<int>("SELECT version FROM schema_migrations ORDER BY version");
 
         // 001 history, 002 alerts, 003 worker state, 004 unmeasurable runs, 005 baseline runs, 006 alert
-        // vocabulary, 007 outbox claims, 008 audit log and baseline resets, 009 run keys, 011 webhook outbox, 012 window
-        // end and back-dated runs, 013 slot claims: all of them, in order.
-        Assert.Equal([1, 2, 3, 4, 5, 6, 7, 8, 9, 11, 12, 13], versions);
+        // vocabulary, 007 outbox claims, 008 audit log and baseline resets, 009 run keys, 010 several workers, 011 webhook
+        // outbox, 012 window end and back-dated runs, 013 slot claims: all of them, in order.
+        Assert.Equal([1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13], versions);
     }
 
     [Fact]

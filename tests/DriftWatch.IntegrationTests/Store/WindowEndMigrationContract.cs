@@ -42,7 +42,7 @@ public abstract class WindowEndMigrationContract : IAsyncLifetime
 
         var applied = await new MigrationRunner(Database).MigrateAsync(CancellationToken.None);
 
-        Assert.Equal(["012_window_end"], applied);
+        Assert.Equal(["012_window_end", "013_slot_claims"], applied);
         var store = new HistoryStore(Database);
         var before = (await store.GetRunAsync(kept, includePoints: true, CancellationToken.None))!;
         Assert.Equal((250, (DateTimeOffset?)null, (DateTimeOffset?)null), (before.Points!.UsedCount, before.WindowEnd, before.BackDatedAt));

@@ -138,6 +138,9 @@ internal static class FullConfig
           stop_grace: 45s
           id: monitor-1
           alert_every: 10s
+          shared_schedule: false
+          heartbeat: 2s
+          takeover_after: 10s
           spool:
             path: /var/lib/driftwatch/spool
             max_runs: 5000

@@ -14,6 +14,10 @@ internal sealed record HealthReport(string Status, DateTimeOffset CheckedAt, Sto
     [System.Text.Json.Serialization.JsonIgnore(Condition = System.Text.Json.Serialization.JsonIgnoreCondition.WhenWritingNull)]
     public Hosting.ConfigStatus? Configuration { get; init; }
 
+    /// <summary>The workers on this store (worker_instances); absent when the store cannot tell.</summary>
+    [System.Text.Json.Serialization.JsonIgnore(Condition = System.Text.Json.Serialization.JsonIgnoreCondition.WhenWritingNull)]
+    public WorkersHealth? Workers { get; init; }
+
     [System.Text.Json.Serialization.JsonIgnore]
     public bool Healthy => Status == "ok";
 }
@@ -25,7 +29,13 @@ internal sealed record SchedulerHealth(bool Checked, bool? Running);
 
 /// <summary>Healthy when the store answers within <see cref="StoreTimeout"/> and the scheduler (if any) runs.</summary>
 /// A full spool is unhealthy too: runs are being lost.
-internal sealed class HealthCheck(IHistoryStore history, TimeProvider time, IWorkerHealth? worker, IWorkerStatus? status = null)
+internal sealed class HealthCheck(
+    IHistoryStore history,
+    TimeProvider time,
+    IWorkerHealth? worker,
+    IWorkerStatus? status = null,
+    WorkerInstances? instances = null,
+    TimeSpan? aliveWithin = null)
 {
     public static readonly TimeSpan StoreTimeout = TimeSpan.FromSeconds(5);
 
@@ -56,7 +66,28 @@ internal sealed class HealthCheck(IHistoryStore history, TimeProvider time, IWor
         {
             Spool = spool,
             Configuration = status?.Configuration,
+            Workers = store.Reachable ? await WorkersAsync(cancellationToken) : null,
         };
+    }
+
+    /// <summary>The workers on this store (also the overview page's small table); null when the store cannot tell.</summary>
+    public async Task<WorkersHealth?> WorkersAsync(CancellationToken cancellationToken)
+    {
+        if (instances is null)
+        {
+            return null;
+        }
+
+        try
+        {
+            var rows = await instances.ListAsync(cancellationToken);
+            return WorkersHealth.Of(rows, time.GetUtcNow(), aliveWithin ?? Core.Configuration.WorkerConfig.DefaultTakeoverAfter);
+        }
+        catch (DbException)
+        {
+            // A store not yet migrated to 010 (a dashboard served alone on an old store) has no workers table.
+            return null;
+        }
     }
 
     private async Task<StoreHealth> CheckStoreAsync(CancellationToken cancellationToken)

@@ -45,7 +45,8 @@ internal static class OverviewPage
         ("Open alerts", "alerts", "num", "Open alerts of warning or worse (info in brackets)"),
     ];
 
-    public static string Render(PageContext context, IReadOnlyList<PairSummary> rows, OverviewFilter filter)
+    /// <param name="workers">The workers on the store (the served dashboard); null leaves the section out (the static report).</param>
+    public static string Render(PageContext context, IReadOnlyList<PairSummary> rows, OverviewFilter filter, Health.WorkersHealth? workers = null)
     {
         ArgumentNullException.ThrowIfNull(context);
         ArgumentNullException.ThrowIfNull(rows);
@@ -59,6 +60,10 @@ internal static class OverviewPage
             Tally(html, context, rows);
             Filters(html, rows, filter);
             Table(html, context, rows, filter);
+            if (workers is { Instances.Count: > 0 })
+            {
+                WorkersSection.Render(html, context, workers);
+            }
         });
     }
 
