@@ -67,6 +67,14 @@ public sealed class SharedScheduleTests(PostgresServer server)
         // The dashboard's overview shows the same workers.
         Assert.Contains("Workers (3 alive)", await FaultBench.PageAsync(ports["w3"], "/"), StringComparison.Ordinal);
 
+        // Some history before the kill, so "slots before the kill" below does not depend on how soon after start the
+        // kill lands: four recorded slots of every pair put the first one at least three periods back.
+        foreach (var pair in new[] { "fuel", "contrary", "broken", "slow" })
+        {
+            await Eventually.TrueAsync($"four slots of {pair} before the kill", async _ =>
+                (await bench.SlotRunsAsync(pair)).Count(r => r.SlotAtMs is not null) >= 4, Logs);
+        }
+
         // SIGKILL the worker running a check of "slow" while its query has just started sleeping.
         string? victim = null;
         await Eventually.TrueAsync("a check of slow just started", async _ =>
