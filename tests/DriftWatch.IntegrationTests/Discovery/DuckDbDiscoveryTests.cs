@@ -121,6 +121,27 @@ public sealed class DuckDbDiscoveryTests : IDisposable
         Assert.Contains("has only one numeric column (amount)", text.Error, StringComparison.Ordinal);
     }
 
+    [Fact]
+    public async Task Cli_ParquetGlob_ProposesPairsOnThePathThatLoadAndValidate()
+    {
+        var config = Path.Combine(_folder, "files.yaml");
+        await File.WriteAllTextAsync(config, "sources:\n  - name: files\n    kind: duckdb\n");
+        var (exit, yaml, error) = await PlantedTable.CliAsync("discover", "--config", config, "--source", "files", "--table", _glob, "--format", "yaml");
+        Assert.True(exit == 0, error);
+        Assert.Contains($"  table: \"{_glob}\"", yaml, StringComparison.Ordinal);
+
+        var merged = Path.Combine(_folder, "files-merged.yaml");
+        await File.WriteAllTextAsync(merged, await File.ReadAllTextAsync(config) + yaml);
+        var loaded = ConfigLoader.Load(merged, _ => null);
+        Assert.True(loaded.Ok, string.Join("\n", loaded.Errors));
+        // Named after the folder the glob reads, not the whole path.
+        var pounds = Assert.Single(loaded.Config!.Pairs, p => p.Name == "parcels.lb_vs_kg");
+        Assert.Equal((_glob, "kg", "lb", true), (pounds.Table, pounds.X, pounds.Y, pounds.Declared.Exact));
+        var validate = await PlantedTable.CliAsync("validate", "--config", merged);
+        Assert.True(validate.Exit == 0, validate.Out + validate.Error);
+        Assert.Contains("✓ parcels.total_vs_net", validate.Out, StringComparison.Ordinal);
+    }
+
     /// <summary>DuckDB's own corr() and count over the rows where both values are finite, and MathNet over the rows read back.</summary>
     private static void AssertMatrix(TableSurvey survey, string connectionString, string from)
     {
