@@ -129,6 +129,21 @@ public sealed class MySqlDiscoveryTests(MariaDbServer server) : IAsyncLifetime
         Assert.Contains("has only one numeric column (amount)", text.Error, StringComparison.Ordinal);
     }
 
+    [Fact]
+    public async Task Survey_SlowView_IsStoppedByTheServersStatementTimeout()
+    {
+        // Each row of the view sleeps 50 ms: the first scan takes far longer than the source's 300 ms.
+        await MariaDbServer.ExecuteAsync(_db, "CREATE VIEW slow_parcels AS SELECT kg + SLEEP(0.05) AS kg, lb FROM parcels");
+        var survey = new MySqlTableSurvey(new SourceConfig
+        {
+            Name = "shop", Kind = SourceKind.MySql, ConnectionString = _db, StatementTimeout = TimeSpan.FromMilliseconds(300),
+        });
+
+        var failure = await Assert.ThrowsAsync<SourceException>(() => survey.SurveyAsync(new SurveyRequest("slow_parcels", 60, 1_000), null, CancellationToken.None));
+        Assert.Equal(SourceFailure.Timeout, failure.Failure);
+        Assert.StartsWith("Survey of table slow_parcels (source 'shop'): stopped by the statement timeout", failure.Message, StringComparison.Ordinal);
+    }
+
     private Task<TableSurvey> Survey(int sampleRows) =>
         new MySqlTableSurvey(new SourceConfig { Name = "shop", Kind = SourceKind.MySql, ConnectionString = _db })
             .SurveyAsync(new SurveyRequest("parcels", 60, sampleRows), null, CancellationToken.None);
