@@ -3,6 +3,7 @@ using System.Text;
 using DriftWatch.Configuration;
 using DriftWatch.Core.Discovery;
 using DriftWatch.Output;
+using DriftWatch.Sources.DuckDb;
 
 namespace DriftWatch.Cli;
 
@@ -31,7 +32,7 @@ internal static class DiscoverYaml
             text.Append("pairs:\n");
         }
 
-        if (Identifiers.CheckTable(table) is { } tableProblem)
+        if (TableProblem(table) is { } tableProblem)
         {
             text.Append(CultureInfo.InvariantCulture, $"{Indent}# none proposed: {tableProblem}\n");
             return text.ToString();
@@ -68,7 +69,7 @@ internal static class DiscoverYaml
 
     private static int Entry(StringBuilder text, string source, string table, string x, string y, bool exact, ISet<string> taken, IReadOnlySet<string>? alreadyWritten)
     {
-        if (alreadyWritten is not null && PairNames.For(table, x, y, new HashSet<string>()) is var stem && alreadyWritten.Contains(stem))
+        if (alreadyWritten is not null && PairNames.For(NameStem(table), x, y, new HashSet<string>()) is var stem && alreadyWritten.Contains(stem))
         {
             text.Append(CultureInfo.InvariantCulture, $"{Indent}# already proposed above: {stem}\n");
             return 0;
@@ -80,7 +81,7 @@ internal static class DiscoverYaml
             return 0;
         }
 
-        var name = PairNames.For(table, x, y, taken);
+        var name = PairNames.For(NameStem(table), x, y, taken);
         text.Append(CultureInfo.InvariantCulture, $"{Indent}- name: \"{name}\"\n");
         text.Append(CultureInfo.InvariantCulture, $"{Indent}  source: \"{source}\"\n");
         text.Append(CultureInfo.InvariantCulture, $"{Indent}  table: \"{table}\"\n");
@@ -92,5 +93,31 @@ internal static class DiscoverYaml
         }
 
         return 1;
+    }
+
+    /// <summary>As the loader reads a pair's <c>table</c>: a plain name, or (for a duckdb source) a path or glob of files.</summary>
+    private static string? TableProblem(string table)
+    {
+        if (!DuckDbTarget.IsFile(table))
+        {
+            return Identifiers.CheckTable(table);
+        }
+
+        // The path goes into a double-quoted YAML scalar as it is: a quote or a backslash would need escapes.
+        return DuckDbTarget.PathProblem(table)
+            ?? (table.Contains('"', StringComparison.Ordinal) || table.Contains('\\', StringComparison.Ordinal) ? $"file path '{table}' holds a quote or a backslash; write its pairs by hand" : null);
+    }
+
+    /// <summary>What pair names start with: the table, or for files the last path part without wildcards or endings ("data/parcels/*.parquet" → "parcels").</summary>
+    private static string NameStem(string table)
+    {
+        if (!DuckDbTarget.IsFile(table))
+        {
+            return table;
+        }
+
+        var part = table.Trim().Split('/').LastOrDefault(p => p.Length > 0 && p.IndexOfAny(['*', '?']) < 0) ?? "files";
+        var stem = part.Split('.')[0];
+        return stem.Length == 0 ? "files" : stem;
     }
 }

@@ -1,4 +1,6 @@
 using DriftWatch.Core.Configuration;
+using DriftWatch.Sources.DuckDb;
+using DriftWatch.Sources.MySql;
 using DriftWatch.Sources.Postgres;
 using DriftWatch.Sources.Sqlite;
 
@@ -15,8 +17,10 @@ internal static class TableSurveys
         {
             SourceKind.Postgres => new PostgresTableSurvey(source),
             SourceKind.Sqlite => new SqliteTableSurvey(source),
+            SourceKind.DuckDb => new DuckDbTableSurvey(source),
+            SourceKind.MySql => new MySqlTableSurvey(source),
             _ => throw new NotSupportedException(
-                $"discover is not supported for kind {source.Kind.ToString().ToLowerInvariant()} yet (source '{source.Name}'); it reads postgres and sqlite sources."),
+                $"discover is not supported for kind {source.Kind.ToString().ToLowerInvariant()} yet (source '{source.Name}'); it reads postgres, sqlite, duckdb and mysql sources."),
         };
     }
 }

@@ -18,7 +18,7 @@ namespace DriftWatch.Sources.DuckDb;
 /// </summary>
 internal sealed class DuckDbPairSource : IPairSource, IDisposable
 {
-    private static readonly HashSet<string> NumericTypes =
+    internal static readonly HashSet<string> NumericTypes =
         ["TINYINT", "SMALLINT", "INTEGER", "BIGINT", "HUGEINT", "UTINYINT", "USMALLINT", "UINTEGER", "UBIGINT", "UHUGEINT", "FLOAT", "DOUBLE"];
 
     private static readonly HashSet<string> TimeTypes =
@@ -32,6 +32,15 @@ internal sealed class DuckDbPairSource : IPairSource, IDisposable
     {
         ArgumentNullException.ThrowIfNull(config);
         Config = config;
+        (_connectionString, _database) = ConnectionFor(config);
+        _gate = new SemaphoreSlim(Math.Max(1, config.MaxConcurrentQueries));
+    }
+
+    public SourceConfig Config { get; }
+
+    /// <summary>The connection string (database files read-only, no extension fetched) and how messages name the database.</summary>
+    internal static (string ConnectionString, string Database) ConnectionFor(SourceConfig config)
+    {
         var builder = new DbConnectionStringBuilder { ConnectionString = config.ConnectionString };
         var key = builder.Keys.Cast<string>().FirstOrDefault(k => k.Replace(" ", string.Empty, StringComparison.Ordinal).Equals("DataSource", StringComparison.OrdinalIgnoreCase));
         var dataSource = key is null ? string.Empty : Convert.ToString(builder[key], CultureInfo.InvariantCulture) ?? string.Empty;
@@ -41,7 +50,7 @@ internal sealed class DuckDbPairSource : IPairSource, IDisposable
         }
 
         var memory = dataSource.Length == 0 || dataSource == ":memory:";
-        _database = memory ? "(files only)" : dataSource;
+        var database = memory ? "(files only)" : dataSource;
         builder["DataSource"] = memory ? ":memory:" : dataSource;
         if (!memory)
         {
@@ -50,11 +59,8 @@ internal sealed class DuckDbPairSource : IPairSource, IDisposable
 
         // Never fetch an extension from the network: what is not built in fails at once.
         builder["autoinstall_known_extensions"] = "false";
-        _connectionString = builder.ConnectionString;
-        _gate = new SemaphoreSlim(Math.Max(1, config.MaxConcurrentQueries));
+        return (builder.ConnectionString, database);
     }
-
-    public SourceConfig Config { get; }
 
     public Task<SampledPair> SampleAsync(PairConfig pair, DateTimeOffset now, CancellationToken cancellationToken)
     {
@@ -325,7 +331,7 @@ internal sealed class DuckDbPairSource : IPairSource, IDisposable
     }
 
     /// <summary>One connection, the statement timeout (an interrupt of the running command) and the single-SELECT check.</summary>
-    private sealed class Session(string subject, TimeSpan timeout, CancellationToken cancellationToken) : IDisposable
+    internal sealed class Session(string subject, TimeSpan timeout, CancellationToken cancellationToken) : IDisposable
     {
         private DuckDBConnection? _connection;
         private CancellationTokenSource? _timer;
