@@ -36,8 +36,8 @@ internal sealed class PairCheckJob(
         var slot = ScheduleSlot.Of(context);
         if (context.Recovering && slot is { } due && recorded is not null && await recorded.IsRecordedAsync(pair.Name, due, cancellationToken))
         {
-            // The worker that died had recorded this slot's run before the scheduler could mark the firing done.
-            logger.LogInformation("Check of {Pair} for the slot {Slot:u} is already recorded; the recovered firing is not run again", pair.Name, due);
+            // The worker that died had recorded this slot's run before the scheduler could mark the job done.
+            logger.LogInformation("Check of {Pair} for the slot {Slot:u} is already recorded; the recovered job does not check it again", pair.Name, due);
             return;
         }
 
@@ -45,7 +45,7 @@ internal sealed class PairCheckJob(
         using var linked = CancellationTokenSource.CreateLinkedTokenSource(cancellationToken, stop.Expired);
         // The pairs of its table group due in the same slot are checked with it (one shared read); none when
         // another pair's job already checked this one for the slot.
-        // A recovered firing (its worker died mid-check) took its claim before it died: it checks its own pair alone.
+        // A recovered job (its worker died mid-check) took its claim before it died: it checks its own pair alone.
         var pairs = await groups.ClaimAsync(pair, context.Recovering ? null : slot, linked.Token);
         if (pairs.Count == 0)
         {

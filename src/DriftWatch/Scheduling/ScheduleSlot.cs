@@ -4,7 +4,7 @@ using Quartz;
 namespace DriftWatch.Scheduling;
 
 /// <summary>
-/// The slot a firing is for: the trigger's scheduled time. A check recovered on another worker (its first worker died
+/// The slot a job run is for: the trigger's scheduled time. A check recovered on another worker (its first worker died
 /// mid-check) fires from a one-off recovery trigger; the slot is then the original trigger's scheduled time, which
 /// Quartz hands over in the job data.
 /// </summary>
