@@ -30,14 +30,14 @@ internal sealed class PairChecker(
     /// <summary>How many of a pair's latest runs are searched for one that already read the same load (anchor latest).</summary>
     public const int RepeatLookback = 50;
 
-    public Task<PairCheckResult> CheckAsync(PairConfig pair, CancellationToken cancellationToken) => CheckAsync(pair, asOf: null, shared: null, cancellationToken);
+    public Task<PairCheckResult> CheckAsync(PairConfig pair, CancellationToken cancellationToken) => CheckAsync(pair, asOf: null, shared: null, slot: null, cancellationToken);
 
     /// <param name="asOf">
     /// Check as of this past time (<c>check --as-of</c>): the window ends there (anchor now) or at the newest value at
     /// or before it (anchor latest), and the run is recorded at that time, marked back-dated (see <see cref="NewRun.BackDatedAt"/>).
     /// </param>
     public Task<PairCheckResult> CheckAsync(PairConfig pair, DateTimeOffset? asOf, CancellationToken cancellationToken) =>
-        CheckAsync(pair, asOf, shared: null, cancellationToken);
+        CheckAsync(pair, asOf, shared: null, slot: null, cancellationToken);
 
     /// <summary>
     /// With <paramref name="shared"/> the pair's rows come from its group's shared read (<see cref="TableGroups"/>)
@@ -45,15 +45,12 @@ internal sealed class PairChecker(
     /// A shared read is never back-dated: groups form only for checks of now.
     /// </summary>
     public Task<PairCheckResult> CheckAsync(PairConfig pair, SharedRead? shared, CancellationToken cancellationToken) =>
-        CheckAsync(pair, asOf: null, shared, cancellationToken);
+        CheckAsync(pair, asOf: null, shared, slot: null, cancellationToken);
 
     /// <summary>A scheduled check: as with <paramref name="shared"/> above, and the run records the schedule <paramref name="slot"/> it was for.</summary>
     /// <param name="slot">The schedule slot this check is for (recorded with the run); null for checks not started by the schedule.</param>
     public Task<PairCheckResult> CheckSlotAsync(PairConfig pair, SharedRead? shared, DateTimeOffset? slot, CancellationToken cancellationToken) =>
         CheckAsync(pair, asOf: null, shared, slot, cancellationToken);
-
-    private Task<PairCheckResult> CheckAsync(PairConfig pair, DateTimeOffset? asOf, SharedRead? shared, CancellationToken cancellationToken) =>
-        CheckAsync(pair, asOf, shared, slot: null, cancellationToken);
 
     private async Task<PairCheckResult> CheckAsync(PairConfig pair, DateTimeOffset? asOf, SharedRead? shared, DateTimeOffset? slot, CancellationToken cancellationToken)
     {

@@ -16,6 +16,9 @@ namespace DriftWatch.Scheduling;
 /// </summary>
 internal sealed class SlotGroups(LiveConfig config, TableGroups groups, ISlotClaims claims, ILogger<SlotGroups> logger)
 {
+    /// <summary>One gate per pair name: held while this worker checks the pair.</summary>
+    private readonly ConcurrentDictionary<string, SemaphoreSlim> checking = new(StringComparer.Ordinal);
+
     /// <summary>
     /// The pairs this job checks for <paramref name="slot"/>: empty when <paramref name="pair"/>'s slot was already
     /// claimed (checked with its group), else the pair and the pairs of its group it claimed. Without a slot (a job
@@ -92,9 +95,6 @@ internal sealed class SlotGroups(LiveConfig config, TableGroups groups, ISlotCla
             }
         }
     }
-
-    /// <summary>One gate per pair name: held while this worker checks the pair.</summary>
-    private readonly ConcurrentDictionary<string, SemaphoreSlim> checking = new(StringComparer.Ordinal);
 
     private static bool FiresAt(PairConfig pair, DateTimeOffset at)
     {
