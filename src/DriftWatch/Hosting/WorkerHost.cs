@@ -41,7 +41,8 @@ internal static class WorkerHost
         builder.Services.AddDriftWatch(config, time, asWorker: true);
         builder.Services.AddSingleton(new LiveConfig(config, InitialHash(config), time.GetUtcNow()));
         // Pairs of one table due in the same slot share a read; the store-held claims keep each slot checked once.
-        builder.Services.AddSingleton<ISlotClaims>(sp => new SlotClaimStore(sp.GetRequiredService<IStoreDatabase>(), Alerting.Outbox.ClaimOwner.OfWorker(config.Worker), time));
+        builder.Services.AddSingleton<ISlotClaims>(sp =>
+            new SlotClaimStore(sp.GetRequiredService<IStoreDatabase>(), sp.GetRequiredService<Workers.WorkerIdentity>().Id, time));
         builder.Services.AddSingleton<SlotGroups>();
 
         // Runs the store cannot take wait in the spool; checks leave start markers there. The spool service turns

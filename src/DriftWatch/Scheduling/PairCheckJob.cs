@@ -34,19 +34,30 @@ internal sealed class PairCheckJob(
         }
 
         var slot = ScheduleSlot.Of(context);
-        if (context.Recovering && slot is { } due && recorded is not null && await recorded.IsRecordedAsync(pair.Name, due, cancellationToken))
-        {
-            // The worker that died had recorded this slot's run before the scheduler could mark the job done.
-            logger.LogInformation("Check of {Pair} for the slot {Slot:u} is already recorded; the recovered job does not check it again", pair.Name, due);
-            return;
-        }
-
         // A stop request does not cancel the check at once: it goes on until the grace runs out.
         using var linked = CancellationTokenSource.CreateLinkedTokenSource(cancellationToken, stop.Expired);
         // The pairs of its table group due in the same slot are checked with it (one shared read); none when
         // another pair's job already checked this one for the slot.
-        // A recovered job (its worker died mid-check) took its claim before it died: it checks its own pair alone.
-        var pairs = await groups.ClaimAsync(pair, context.Recovering ? null : slot, linked.Token);
+        var pairs = await groups.ClaimAsync(pair, slot, context.Recovering, linked.Token);
+        if (context.Recovering && slot is { } due && recorded is not null)
+        {
+            // The worker that died may have recorded some of these runs before the scheduler could mark the job done.
+            var unrecorded = new List<Core.Configuration.PairConfig>(pairs.Count);
+            foreach (var claimed in pairs)
+            {
+                if (await recorded.IsRecordedAsync(claimed.Name, due, linked.Token))
+                {
+                    logger.LogInformation("Check of {Pair} for the slot {Slot:u} is already recorded; the recovered job does not check it again", claimed.Name, due);
+                }
+                else
+                {
+                    unrecorded.Add(claimed);
+                }
+            }
+
+            pairs = unrecorded;
+        }
+
         if (pairs.Count == 0)
         {
             return;

@@ -24,7 +24,12 @@ internal sealed class SlotGroups(LiveConfig config, TableGroups groups, ISlotCla
     /// claimed (checked with its group), else the pair and the pairs of its group it claimed. Without a slot (a job
     /// started by hand) or when the store cannot take claims, the pair alone.
     /// </summary>
-    public async Task<IReadOnlyList<PairConfig>> ClaimAsync(PairConfig pair, DateTimeOffset? slot, CancellationToken cancellationToken)
+    /// <param name="recovering">
+    /// The job runs again because its worker died mid-check. That worker may have claimed the pair's whole group
+    /// before it died, and the other pairs' jobs then returned: the recovered job takes over every claim of the
+    /// group its dead worker held, so none of those pairs misses the slot. A claim held by a live worker stays its.
+    /// </param>
+    public async Task<IReadOnlyList<PairConfig>> ClaimAsync(PairConfig pair, DateTimeOffset? slot, bool recovering, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(pair);
         if (slot is not { } at)
@@ -34,29 +39,21 @@ internal sealed class SlotGroups(LiveConfig config, TableGroups groups, ISlotCla
 
         try
         {
-            if (!await claims.TryClaimAsync(pair.Name, at, cancellationToken))
+            if (await claims.TryClaimAsync(pair.Name, at, cancellationToken))
             {
-                logger.LogDebug("Slot {Slot:o} of {Pair} was checked with its table group", at, pair.Name);
-                return [];
+                return await GroupAsync(pair, at, claims.TryClaimAsync, cancellationToken);
             }
 
-            var key = groups.KeyOf(pair);
-            var group = new List<PairConfig> { pair };
-            if (key is null)
+            if (recovering && await claims.TryTakeOverAsync(pair.Name, at, cancellationToken))
             {
+                var group = await GroupAsync(pair, at, claims.TryTakeOverAsync, cancellationToken);
+                logger.LogInformation(
+                    "Slot {Slot:o} of {Pair}: taken over from a worker that died, with {Count} pairs of its table group", at, pair.Name, group.Count - 1);
                 return group;
             }
 
-            foreach (var other in config.Current.Pairs)
-            {
-                if (other.Name != pair.Name && key.Equals(groups.KeyOf(other)) && FiresAt(other, at) && TableGroups.Fits(group, other)
-                    && await claims.TryClaimAsync(other.Name, at, cancellationToken))
-                {
-                    group.Add(other);
-                }
-            }
-
-            return group;
+            logger.LogDebug("Slot {Slot:o} of {Pair} was checked with its table group", at, pair.Name);
+            return [];
         }
         catch (Exception ex) when (ex is System.Data.Common.DbException or IOException or TimeoutException or System.Net.Sockets.SocketException)
         {
@@ -64,6 +61,28 @@ internal sealed class SlotGroups(LiveConfig config, TableGroups groups, ISlotCla
             logger.LogWarning("Slot {Slot:o} of {Pair}: the store could not take the claim ({Error}); checking the pair alone", at, pair.Name, ex.Message);
             return [pair];
         }
+    }
+
+    /// <summary>The pair and each pair of its table group that also fires at <paramref name="at"/> and that <paramref name="take"/> gets.</summary>
+    private async Task<IReadOnlyList<PairConfig>> GroupAsync(
+        PairConfig pair, DateTimeOffset at, Func<string, DateTimeOffset, CancellationToken, Task<bool>> take, CancellationToken cancellationToken)
+    {
+        var group = new List<PairConfig> { pair };
+        if (groups.KeyOf(pair) is not { } key)
+        {
+            return group;
+        }
+
+        foreach (var other in config.Current.Pairs)
+        {
+            if (other.Name != pair.Name && key.Equals(groups.KeyOf(other)) && FiresAt(other, at) && TableGroups.Fits(group, other)
+                && await take(other.Name, at, cancellationToken))
+            {
+                group.Add(other);
+            }
+        }
+
+        return group;
     }
 
     /// <summary>

@@ -9,4 +9,11 @@ internal interface ISlotClaims
 {
     /// <summary>True when this call took the claim on (<paramref name="pair"/>, <paramref name="slot"/>); false when it was taken before.</summary>
     Task<bool> TryClaimAsync(string pair, DateTimeOffset slot, CancellationToken cancellationToken);
+
+    /// <summary>
+    /// True when the claim on (<paramref name="pair"/>, <paramref name="slot"/>) belonged to a worker that has left
+    /// the shared schedule (taken for dead, its jobs recovered) and now belongs to this one; false when its holder is
+    /// still a member, is this worker, or nobody claimed it.
+    /// </summary>
+    Task<bool> TryTakeOverAsync(string pair, DateTimeOffset slot, CancellationToken cancellationToken);
 }
