@@ -30,6 +30,9 @@ internal static class DriftWatchServices
         services.AddSingleton(time);
         services.AddSingleton(_ => StoreFactory.CreateDatabase(config.Store));
         services.AddSingleton<IHistoryStore>(sp => StoreFactory.CreateHistoryStore(sp.GetRequiredService<IStoreDatabase>(), config.Store));
+        // Shared reads keep what they learn about columns in the store, for the next process and the other workers.
+        services.AddSingleton(sp => new ColumnHintStore(sp.GetRequiredService<IStoreDatabase>()));
+        services.AddSingleton<IColumnHints>(sp => sp.GetRequiredService<ColumnHintStore>());
         services.AddSingleton<SourceFactory>();
         services.AddSingleton<ISourceFactory>(sp => sp.GetRequiredService<SourceFactory>());
         // BaselineService (with the reset store) comes with the triage services below.

@@ -10,7 +10,8 @@ namespace DriftWatch.Scheduling;
 /// Applies the store's retention to every table, in one place: old runs (with their findings) go, older runs'
 /// sampled points go first; cleared alerts and ended snoozes go after <see cref="OutboxOptions.ClearedRetention"/>,
 /// sent messages after <see cref="OutboxOptions.SentRetention"/>. Open alerts and unsent messages are never
-/// deleted; baselines (one per pair) and the feed watermark are replaced, never accumulate.
+/// deleted; baselines (one per pair) and the feed watermark are replaced, never accumulate. Column hints that no
+/// read has refreshed within the run retention go too.
 /// </summary>
 [DisallowConcurrentExecution]
 internal sealed class StoreMaintenanceJob(
@@ -21,7 +22,8 @@ internal sealed class StoreMaintenanceJob(
     OutboxOptions outboxOptions,
     TimeProvider time,
     ILogger<StoreMaintenanceJob> logger,
-    Workers.ExclusiveWork? exclusive = null) : IJob
+    Workers.ExclusiveWork? exclusive = null,
+    ColumnHintStore? hints = null) : IJob
 {
     public static readonly TimeSpan Every = TimeSpan.FromHours(1);
 
@@ -45,6 +47,11 @@ internal sealed class StoreMaintenanceJob(
         if (deleted > 0)
         {
             logger.LogInformation("Retention: deleted {Runs} runs older than {Retention}", deleted, config.Store.Retention);
+        }
+
+        if (hints is not null)
+        {
+            await hints.PruneAsync(now - config.Store.Retention, cancellationToken);
         }
 
         var cleared = await alerts.PruneClearedAsync(now - outboxOptions.ClearedRetention, cancellationToken);

@@ -12,7 +12,8 @@ namespace DriftWatch.Sources;
 /// adapter's connection pool and concurrency limit are shared by every pair of that source. A changed
 /// configuration (a reload) gets a fresh adapter.
 /// </summary>
-internal sealed class SourceFactory : ISourceFactory, IAsyncDisposable
+/// <param name="hints">Where shared reads keep what they learn about columns (the store); none keeps it per adapter.</param>
+internal sealed class SourceFactory(IColumnHints? hints = null) : ISourceFactory, IAsyncDisposable
 {
     private readonly ConcurrentDictionary<SourceConfig, Lazy<IPairSource>> _sources = new();
 
@@ -40,9 +41,9 @@ internal sealed class SourceFactory : ISourceFactory, IAsyncDisposable
         _sources.Clear();
     }
 
-    private static IPairSource Build(SourceConfig source) => source.Kind switch
+    private IPairSource Build(SourceConfig source) => source.Kind switch
     {
-        SourceKind.Postgres => new PostgresPairSource(source),
+        SourceKind.Postgres => new PostgresPairSource(source, hints),
         SourceKind.Sqlite => new SqlitePairSource(source),
         SourceKind.DuckDb => new DuckDbPairSource(source),
         SourceKind.MySql => new MySqlPairSource(source),

@@ -74,7 +74,7 @@ public abstract partial class AlertVocabularyMigrationContract : IAsyncLifetime
         // Every script after 005 runs, 007 (the owner of outbox claims) over the outbox rows this old store holds,
         // 008 (audit log, baseline resets) adding its empty tables, 009 the run keys, 010 several workers, 011 the webhook
         // outbox (the outbox row this old store holds is carried over), 012 the window end of runs, 013 the slot claims.
-        Assert.Equal(["006_alert_vocabulary", "007_outbox_claims", "008_triage_audit", "009_run_keys", "010_several_workers", "011_webhook_outbox", "012_window_end", "013_slot_claims"], applied);
+        Assert.Equal(["006_alert_vocabulary", "007_outbox_claims", "008_triage_audit", "009_run_keys", "010_several_workers", "011_webhook_outbox", "012_window_end", "013_slot_claims", "014_column_hints"], applied);
         var store = new AlertStore(Database);
         var open = await store.GetOpenAlertsAsync(null, CancellationToken.None);
         Assert.Equal([(1L, AlertStatus.Watching), (2L, AlertStatus.Confirmed)], open.Select(a => (a.Id, a.Status)));

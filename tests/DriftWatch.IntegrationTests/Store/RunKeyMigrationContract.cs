@@ -47,7 +47,7 @@ public abstract class RunKeyMigrationContract : IAsyncLifetime
 
         var applied = await new MigrationRunner(Database).MigrateAsync(CancellationToken.None);
 
-        Assert.Equal(["009_run_keys", "010_several_workers", "011_webhook_outbox", "012_window_end", "013_slot_claims"], applied);
+        Assert.Equal(["009_run_keys", "010_several_workers", "011_webhook_outbox", "012_window_end", "013_slot_claims", "014_column_hints"], applied);
         var store = new HistoryStore(Database);
         var before = (await store.GetRunAsync(kept, includePoints: true, CancellationToken.None))!;
         Assert.Equal(("slope moved", 250), (Assert.Single(before.Findings).Message, before.Points!.UsedCount));

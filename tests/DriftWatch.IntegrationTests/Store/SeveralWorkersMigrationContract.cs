@@ -42,7 +42,7 @@ public abstract class SeveralWorkersMigrationContract : IAsyncLifetime
 
         var applied = await new MigrationRunner(Database).MigrateAsync(CancellationToken.None);
 
-        Assert.Equal(["010_several_workers", "011_webhook_outbox", "012_window_end", "013_slot_claims"], applied);
+        Assert.Equal(["010_several_workers", "011_webhook_outbox", "012_window_end", "013_slot_claims", "014_column_hints"], applied);
         var store = new HistoryStore(Database);
         Assert.NotNull(await store.GetRunAsync(kept, includePoints: false, CancellationToken.None));
         var slot = T0.AddMinutes(5);

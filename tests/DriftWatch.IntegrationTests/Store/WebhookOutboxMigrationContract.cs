@@ -52,7 +52,7 @@ public abstract class WebhookOutboxMigrationContract : IAsyncLifetime
 
         var applied = await new MigrationRunner(Database).MigrateAsync(CancellationToken.None);
 
-        Assert.Equal(["010_several_workers", "011_webhook_outbox", "012_window_end", "013_slot_claims"], applied);
+        Assert.Equal(["010_several_workers", "011_webhook_outbox", "012_window_end", "013_slot_claims", "014_column_hints"], applied);
         var outbox = new OutboxStore(Database);
         var kept = Assert.Single(await outbox.ListOutboxAsync(unsentOnly: true, 10, CancellationToken.None));
         Assert.Equal((1L, "dw-queued@driftwatch.local", ChannelKind.Smtp, 2, "server down", (DateTimeOffset?)null), (kept.Id, kept.MessageId, kept.Channel, kept.Attempts, kept.LastError, kept.FailedAt));

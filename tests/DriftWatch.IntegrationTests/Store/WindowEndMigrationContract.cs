@@ -42,7 +42,7 @@ public abstract class WindowEndMigrationContract : IAsyncLifetime
 
         var applied = await new MigrationRunner(Database).MigrateAsync(CancellationToken.None);
 
-        Assert.Equal(["012_window_end", "013_slot_claims"], applied);
+        Assert.Equal(["012_window_end", "013_slot_claims", "014_column_hints"], applied);
         var store = new HistoryStore(Database);
         var before = (await store.GetRunAsync(kept, includePoints: true, CancellationToken.None))!;
         Assert.Equal((250, (DateTimeOffset?)null, (DateTimeOffset?)null), (before.Points!.UsedCount, before.WindowEnd, before.BackDatedAt));

@@ -16,11 +16,26 @@ namespace DriftWatch.Sources.Postgres;
 /// </summary>
 internal sealed partial class PostgresPairSource
 {
+    /// <summary>After the hint store failed, how long shared reads go on without it (each attempt could wait for a connect timeout).</summary>
+    private static readonly TimeSpan HintsPause = TimeSpan.FromMinutes(1);
+
     // Each column's mean at its last shared read: the shift of the next one, so one scan usually suffices.
     private readonly ConcurrentDictionary<string, double> _references = new(StringComparer.Ordinal);
 
     // Whether each column was finite on every row at its last shared read: its pairs then get the lean aggregate.
     private readonly ConcurrentDictionary<string, bool> _clean = new(StringComparer.Ordinal);
+
+    // Keys whose hint was looked up in the store (found or not) by this object.
+    private readonly ConcurrentDictionary<string, bool> _looked = new(StringComparer.Ordinal);
+
+    private readonly IColumnHints? _hints;
+
+    private long _hintsPausedUntilMs;
+
+    private long _aggregateScans;
+
+    /// <summary>Aggregate statements run by shared reads since this object was made (tests see what a hint saved).</summary>
+    internal long AggregateScans => Interlocked.Read(ref _aggregateScans);
 
     public async Task<IReadOnlyList<Lazy<SampledPair>?>> SampleGroupAsync(IReadOnlyList<PairConfig> pairs, DateTimeOffset now, CancellationToken cancellationToken)
     {
@@ -54,6 +69,7 @@ internal sealed partial class PostgresPairSource
             if (included.Count > 0)
             {
                 var keys = columns.Select(c => shared.From() + "\n" + target.Where + "\n" + c).ToList();
+                await RecallHintsAsync(keys, now, ct);
                 var references = keys.Select(k => _references.TryGetValue(k, out var r) ? r : 0.0).ToArray();
                 var clean = keys.Select(k => _clean.TryGetValue(k, out var c) && c).ToArray();
                 for (var pass = 0; pass < 3; pass++)
@@ -62,6 +78,7 @@ internal sealed partial class PostgresPairSource
                     var full = pairColumns.Select(c => !(clean[c.Item1] && clean[c.Item2])).ToArray();
                     var statement = full.Any(f => f) ? sql.Aggregate(references, full) : sql.Lean(references);
                     var read = await ReadGroupAggregateAsync(connection, statement, columns.Count, pairColumns.Count, ct);
+                    Interlocked.Increment(ref _aggregateScans);
                     rows = read.Rows;
                     var lacking = false;
                     for (var k = 0; k < included.Count; k++)
@@ -94,6 +111,8 @@ internal sealed partial class PostgresPairSource
                         break;
                     }
                 }
+
+                await KeepHintsAsync(keys, now, ct);
             }
 
             var spec = first.Sample;
@@ -123,6 +142,71 @@ internal sealed partial class PostgresPairSource
             return (IReadOnlyList<Lazy<SampledPair>?>)result;
         }, cancellationToken);
     }
+
+    /// <summary>Fills the remembered references and cleanliness of keys this object has not looked up yet from the hint store.</summary>
+    private async Task RecallHintsAsync(IReadOnlyList<string> keys, DateTimeOffset now, CancellationToken ct)
+    {
+        var unknown = keys.Where(k => !_looked.ContainsKey(k)).Distinct(StringComparer.Ordinal).ToList();
+        if (_hints is null || unknown.Count == 0 || now.ToUnixTimeMilliseconds() < Interlocked.Read(ref _hintsPausedUntilMs))
+        {
+            return;
+        }
+
+        try
+        {
+            var found = await _hints.ReadAsync(Config.Name, unknown, ct);
+            foreach (var key in unknown)
+            {
+                _looked[key] = true;
+                if (found.TryGetValue(key, out var hint))
+                {
+                    // What this object learned itself is newer than the store's.
+                    if (hint.Mean is { } mean && double.IsFinite(mean))
+                    {
+                        _references.TryAdd(key, mean);
+                    }
+
+                    _clean.TryAdd(key, hint.AllFinite);
+                }
+            }
+        }
+        catch (Exception ex) when (IsHintStoreFailure(ex))
+        {
+            PauseHints(now);
+        }
+    }
+
+    /// <summary>Hands what this read learned to the hint store; a store that fails costs the next process a scan, not this check.</summary>
+    private async Task KeepHintsAsync(IReadOnlyList<string> keys, DateTimeOffset now, CancellationToken ct)
+    {
+        if (_hints is null || now.ToUnixTimeMilliseconds() < Interlocked.Read(ref _hintsPausedUntilMs))
+        {
+            return;
+        }
+
+        var hints = new Dictionary<string, ColumnHint>(StringComparer.Ordinal);
+        foreach (var key in keys)
+        {
+            if (_clean.TryGetValue(key, out var clean))
+            {
+                hints[key] = new ColumnHint(_references.TryGetValue(key, out var mean) ? mean : null, clean);
+            }
+        }
+
+        try
+        {
+            await _hints.WriteAsync(Config.Name, hints, now, ct);
+        }
+        catch (Exception ex) when (IsHintStoreFailure(ex))
+        {
+            PauseHints(now);
+        }
+    }
+
+    private void PauseHints(DateTimeOffset now) => Interlocked.Exchange(ref _hintsPausedUntilMs, (now + HintsPause).ToUnixTimeMilliseconds());
+
+    private static bool IsHintStoreFailure(Exception ex) =>
+        ex is System.Data.Common.DbException or IOException or TimeoutException or System.Net.Sockets.SocketException or InvalidOperationException;
 
     /// <summary>Per column: true for numeric (it needs the range guard), false for another number type, null when it is not a number.</summary>
     private static async Task<Dictionary<string, bool?>> ProbeGroupAsync(

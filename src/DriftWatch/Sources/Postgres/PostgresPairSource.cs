@@ -28,10 +28,12 @@ internal sealed partial class PostgresPairSource : IPairSource, IGroupSource, IA
     private readonly SemaphoreSlim _gate;
     private readonly string _endpoint;
 
-    public PostgresPairSource(SourceConfig config)
+    /// <param name="hints">Where shared reads keep what they learn about columns; none keeps it in this object only.</param>
+    public PostgresPairSource(SourceConfig config, IColumnHints? hints = null)
     {
         ArgumentNullException.ThrowIfNull(config);
         Config = config;
+        _hints = hints;
         var builder = new NpgsqlConnectionStringBuilder(config.ConnectionString)
         {
             ApplicationName = ApplicationName,

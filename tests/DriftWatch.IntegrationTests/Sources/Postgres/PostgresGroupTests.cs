@@ -1,8 +1,10 @@
 using DriftWatch.Core.Configuration;
 using DriftWatch.Core.History;
 using DriftWatch.IntegrationTests.Infrastructure;
+using DriftWatch.IntegrationTests.Store;
 using DriftWatch.Sources;
 using DriftWatch.Sources.Postgres;
+using DriftWatch.Store;
 using static DriftWatch.IntegrationTests.Sources.TestPairs;
 
 namespace DriftWatch.IntegrationTests.Sources.Postgres;
@@ -129,6 +131,53 @@ public sealed class PostgresGroupTests(PostgresServer server) : PostgresSourceTe
         }
     }
 
+    /// <summary>
+    /// Column hints kept in a real store: a fresh source (a restarted worker, another worker) starts from what an
+    /// earlier source learned, so column big (10⁹ plus a spread of 1, far from the reference 0 a source starts from)
+    /// costs one scan instead of two; a wrong hint costs scans, never a figure.
+    /// </summary>
+    [Fact]
+    public async Task SharedRead_FreshSourceWithStoredHints_ScansOnce_AndAWrongHintNeverChangesAFigure()
+    {
+        await using var store = new SqliteStoreDatabaseFactory();
+        var database = await store.CreateAsync();
+        await new MigrationRunner(database).MigrateAsync(CancellationToken.None);
+        var hints = new KeysSeen(new ColumnHintStore(database));
+        var pairs = new[] { ("big", "c"), ("c", "big"), ("a", "big") }
+            .Select(c => Table("gauges", c.Item1, c.Item2, new SampleSpec { Method = SampleMethod.All }) with { Name = $"{c.Item1}_{c.Item2}" })
+            .ToList();
+
+        await using var first = new PostgresPairSource(PgSource(Db.ConnectionString), hints);
+        var firstReads = await first.SampleGroupAsync(pairs, Now, CancellationToken.None);
+        Assert.Equal(2, first.AggregateScans);
+
+        // A fresh source with the store's hints: one scan, the same figures as the first source and as each pair alone.
+        await using var second = new PostgresPairSource(PgSource(Db.ConnectionString), hints);
+        var secondReads = await second.SampleGroupAsync(pairs, Now, CancellationToken.None);
+        Assert.Equal(1, second.AggregateScans);
+        // Control: a fresh source without the store needs the second scan again.
+        await using var alone = new PostgresPairSource(PgSource(Db.ConnectionString));
+        await alone.SampleGroupAsync(pairs, Now, CancellationToken.None);
+        Assert.Equal(2, alone.AggregateScans);
+        for (var i = 0; i < pairs.Count; i++)
+        {
+            var own = await alone.SampleAsync(pairs[i], Now, CancellationToken.None);
+            AssertSameFigures(own.Figures!, firstReads[i]!.Value.Figures!, pairs[i].Name);
+            AssertSameFigures(own.Figures!, secondReads[i]!.Value.Figures!, pairs[i].Name);
+        }
+
+        // Wrong hints: every column said finite throughout (a has a null and an infinity) with a mean far off.
+        await hints.WriteAsync(PgSource(Db.ConnectionString).Name, hints.Keys.ToDictionary(k => k, _ => new ColumnHint(-5e8, true)), Now, CancellationToken.None);
+        await using var misled = new PostgresPairSource(PgSource(Db.ConnectionString), hints);
+        var misledReads = await misled.SampleGroupAsync(pairs, Now, CancellationToken.None);
+        Assert.True(misled.AggregateScans >= 2, $"{misled.AggregateScans} scans");
+        for (var i = 0; i < pairs.Count; i++)
+        {
+            var own = await alone.SampleAsync(pairs[i], Now, CancellationToken.None);
+            AssertSameFigures(own.Figures!, misledReads[i]!.Value.Figures!, pairs[i].Name);
+        }
+    }
+
     [Fact]
     public async Task SharedRead_WithWindowAndFilter_EqualsTheReadsAlone()
     {
@@ -237,5 +286,20 @@ public sealed class PostgresGroupTests(PostgresServer server) : PostgresSourceTe
         {
             Assert.True(Math.Abs(a - e) <= Tolerance * Math.Max(Math.Max(Math.Abs(e), scale), 1e-300), $"{what}: expected {e:R}, got {a:R}");
         }
+    }
+
+    /// <summary>The real hint store, noting the keys the source asked for (the test then writes wrong hints under them).</summary>
+    private sealed class KeysSeen(IColumnHints inner) : IColumnHints
+    {
+        public HashSet<string> Keys { get; } = new(StringComparer.Ordinal);
+
+        public Task<IReadOnlyDictionary<string, ColumnHint>> ReadAsync(string source, IReadOnlyCollection<string> keys, CancellationToken cancellationToken)
+        {
+            Keys.UnionWith(keys);
+            return inner.ReadAsync(source, keys, cancellationToken);
+        }
+
+        public Task WriteAsync(string source, IReadOnlyDictionary<string, ColumnHint> hints, DateTimeOffset readAt, CancellationToken cancellationToken) =>
+            inner.WriteAsync(source, hints, readAt, cancellationToken);
     }
 }
