@@ -41,9 +41,9 @@ internal static class RunCommand
             }
 
             await using var app = WorkerHost.Build(loaded);
-            if (!await StartAsync(app, endPoint, console, ct))
+            if (await StartAsync(app, endPoint, console, ct) is { } stoppedWith)
             {
-                return ExitCodes.UsageError;
+                return stoppedWith;
             }
 
             // The host's lifetime handles SIGTERM and Ctrl+C (see StopsOnItsOwn): this returns once it has
@@ -64,12 +64,13 @@ internal static class RunCommand
         return parsed.CommandResult.Command.Name == Name && parsed.CommandResult.Parent is CommandResult { Command: RootCommand };
     }
 
-    private static async Task<bool> StartAsync(WebApplication app, System.Net.IPEndPoint endPoint, CliConsole console, CancellationToken cancellationToken)
+    /// <summary>Null once the worker has started; else the exit code of a start that ended early.</summary>
+    private static async Task<int?> StartAsync(WebApplication app, System.Net.IPEndPoint endPoint, CliConsole console, CancellationToken cancellationToken)
     {
         try
         {
             await app.StartAsync(cancellationToken);
-            return true;
+            return null;
         }
         catch (Exception ex) when (DashboardBinding.Failure(endPoint, ex) is not null)
         {
@@ -77,7 +78,15 @@ internal static class RunCommand
             console.WriteError(DashboardBinding.Failure(endPoint, ex)!);
             using var stop = new CancellationTokenSource(TimeSpan.FromSeconds(5));
             await app.StopAsync(stop.Token);
-            return false;
+            return ExitCodes.UsageError;
+        }
+        catch (OperationCanceledException) when (cancellationToken.IsCancellationRequested || app.Lifetime.ApplicationStopping.IsCancellationRequested)
+        {
+            // SIGTERM or Ctrl+C while the services were starting: the host cancels the start. Stop what had started
+            // (no check has run yet) and end as a stop after the start would, instead of with an unhandled exception.
+            using var stop = new CancellationTokenSource(TimeSpan.FromSeconds(10));
+            await app.StopAsync(stop.Token);
+            return ExitCodes.Healthy;
         }
     }
 }

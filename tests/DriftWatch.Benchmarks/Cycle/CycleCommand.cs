@@ -64,15 +64,24 @@ internal static class CycleCommand
                 $"{config.Pairs.Count} pairs over {options.Tables} tables of {options.Rows:N0} rows; " +
                 $"{(options.Window is null ? "whole-table pairs" : $"window last {options.Window} on ts")}; " +
                 $"max_concurrent_queries {config.Sources[0].MaxConcurrentQueries}, {MonitorCycle.MaxParallelChecks} checks in parallel; " +
-                $"sample {config.Pairs[0].Sample.Rows} rows, method {config.Pairs[0].Sample.Method}; store {folder.FullName}");
+                $"sample {config.Pairs[0].Sample.Rows} rows, method {config.Pairs[0].Sample.Method}; store {folder.FullName}" +
+                (options.RestartEachCycle ? "; services started afresh before every cycle" : string.Empty));
 
-            await using var services = await OneShotServices.StartAsync(config, verbose: false, ct, new ShiftedClock(CycleTables.End));
-            var pass = services.GetRequiredService<CheckPass>();
+            var services = await OneShotServices.StartAsync(config, verbose: false, ct, new ShiftedClock(CycleTables.End));
             var measured = new List<CycleMeasurement>();
             var failures = 0;
             for (var i = 0; i < options.Warmups + options.Cycles; i++)
             {
                 var warmup = i < options.Warmups;
+                if (options.RestartEachCycle && i > 0)
+                {
+                    // Outside the measurement: a new process's start is not part of its first cycle.
+                    await services.DisposeAsync();
+                    NpgsqlConnection.ClearAllPools();
+                    services = await OneShotServices.StartAsync(config, verbose: false, ct, new ShiftedClock(CycleTables.End));
+                }
+
+                var pass = services.GetRequiredService<CheckPass>();
                 if (!warmup && measured.Count == 0 && haveStatements)
                 {
                     await statements.ResetAsync(ct);
@@ -120,6 +129,7 @@ internal static class CycleCommand
                 await CycleStages.RunAsync(services, config, server, Console.Out, ct);
             }
 
+            await services.DisposeAsync();
             return failures == 0 ? 0 : 1;
         }
         finally

@@ -12,7 +12,8 @@ internal sealed record CycleOptions(
     int? MaxConcurrentQueries,
     string? Window,
     bool Stages,
-    bool DropData)
+    bool DropData,
+    bool RestartEachCycle)
 {
     public static RootCommand Command(Func<CycleOptions, CancellationToken, Task<int>> run)
     {
@@ -24,10 +25,15 @@ internal sealed record CycleOptions(
         var concurrent = new Option<int?>("--max-concurrent-queries") { Description = "The source's max_concurrent_queries; unset: the default." };
         var window = new Option<string?>("--window") { Description = "Give every pair window {column: ts, last: VALUE} (e.g. 1d); unset: whole-table pairs." };
         var stages = new Option<bool>("--stages") { Description = "After the cycles, time the stages of a check one by one (source, baseline read, engine, store write, alerts)." };
+        var restart = new Option<bool>("--restart-each-cycle")
+        {
+            Description = "Start the services afresh before every cycle, as a restarted worker or a one-shot check does: nothing "
+                + "remembered in memory, only what the store keeps (baselines, column hints).",
+        };
         var drop = new Option<bool>("--drop-data") { Description = "Drop the generated database at the end (kept by default: loading it takes minutes)." };
         var command = new RootCommand("One monitor cycle of many pairs on PostgreSQL, through CheckPass as the check command and the scheduler run it.")
         {
-            pairs, tables, rows, warmups, cycles, concurrent, window, stages, drop,
+            pairs, tables, rows, warmups, cycles, concurrent, window, stages, drop, restart,
         };
         command.SetAction((parse, ct) => run(
             new CycleOptions(
@@ -39,7 +45,8 @@ internal sealed record CycleOptions(
                 parse.GetValue(concurrent),
                 parse.GetValue(window),
                 parse.GetValue(stages),
-                parse.GetValue(drop)),
+                parse.GetValue(drop),
+                parse.GetValue(restart)),
             ct));
         return command;
     }

@@ -106,6 +106,27 @@ internal sealed class PostgresGroupSql(PostgresPairSql shared, PairTarget target
         return ($"SELECT {outer}\nFROM {shared.From()}{shared.Where(p)}", p);
     }
 
+    /// <summary>
+    /// A first look at columns nothing is known of yet (no earlier read, no hint in the store): row count, then per
+    /// column of <paramref name="which"/> ARRAY[finite values, their mean]. Three plain aggregates per column, which
+    /// PostgreSQL may run as a parallel scan: far cheaper than a full-form statement shifted by 0 that may have to
+    /// run twice. The mean only serves as the reference, so float8's own <c>avg</c> is close enough.
+    /// </summary>
+    public (string Sql, PositionalParameters Parameters) Survey(IReadOnlyList<int> which)
+    {
+        ArgumentNullException.ThrowIfNull(which);
+        var p = new PositionalParameters();
+        var outer = new StringBuilder("count(*)");
+        foreach (var c in which)
+        {
+            var v = PostgresPairSql.Float8(shared.Column(columns[c]), numeric[c]);
+            var finite = $"({v} > '-Infinity'::float8 AND {v} < 'Infinity'::float8)";
+            outer.Append(CultureInfo.InvariantCulture, $",\n       ARRAY[count(*) FILTER (WHERE {finite}), avg({v}) FILTER (WHERE {finite})]::float8[]");
+        }
+
+        return ($"SELECT {outer}\nFROM {shared.From()}{shared.Where(p)}", p);
+    }
+
     /// <summary>The rows of the sample with every column of the group, drawn as <see cref="PostgresPairSql.Sample"/> draws one pair's.</summary>
     public (string Sql, PositionalParameters Parameters) Sample(SamplePlan plan, int rows, int? seed, bool bernoulli)
     {

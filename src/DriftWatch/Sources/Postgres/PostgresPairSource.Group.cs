@@ -11,7 +11,7 @@ namespace DriftWatch.Sources.Postgres;
 /// <summary>
 /// The shared read of a group of pairs (<see cref="IGroupSource"/>): one session, one snapshot, one gate slot of
 /// <see cref="SourceConfig.MaxConcurrentQueries"/>; one aggregate scan (two when the remembered references lie
-/// too far from the means), one sample of all the group's columns. JIT is off for the session: it makes such
+/// too far from the means; a cheap survey first for columns nothing is known of), one sample of all the group's columns. JIT is off for the session: it makes such
 /// wide aggregates several times slower.
 /// </summary>
 internal sealed partial class PostgresPairSource
@@ -70,6 +70,7 @@ internal sealed partial class PostgresPairSource
             {
                 var keys = columns.Select(c => shared.From() + "\n" + target.Where + "\n" + c).ToList();
                 await RecallHintsAsync(keys, now, ct);
+                await SurveyUnknownColumnsAsync(connection, sql, keys, ct);
                 var references = keys.Select(k => _references.TryGetValue(k, out var r) ? r : 0.0).ToArray();
                 var clean = keys.Select(k => _clean.TryGetValue(k, out var c) && c).ToArray();
                 for (var pass = 0; pass < 3; pass++)
@@ -141,6 +142,37 @@ internal sealed partial class PostgresPairSource
 
             return (IReadOnlyList<Lazy<SampledPair>?>)result;
         }, cancellationToken);
+    }
+
+    /// <summary>
+    /// For columns with neither a remembered nor a stored hint: one cheap statement of their finite counts and means,
+    /// so the shared aggregate that follows is lean where it can be and shifted by the means (one scan, not two).
+    /// </summary>
+    private async Task SurveyUnknownColumnsAsync(NpgsqlConnection connection, PostgresGroupSql sql, List<string> keys, CancellationToken ct)
+    {
+        var unknown = Enumerable.Range(0, keys.Count).Where(c => !_clean.ContainsKey(keys[c])).ToList();
+        if (unknown.Count == 0)
+        {
+            return;
+        }
+
+        var (text, parameters) = sql.Survey(unknown);
+        await using var batch = new NpgsqlBatch(connection);
+        batch.BatchCommands.Add(parameters.Command(text));
+        await using var reader = await batch.ExecuteReaderAsync(ct);
+        await reader.ReadAsync(ct);
+        Interlocked.Increment(ref _aggregateScans);
+        var rows = reader.GetInt64(0);
+        for (var i = 0; i < unknown.Count; i++)
+        {
+            var a = reader.GetFieldValue<double?[]>(1 + i);
+            var key = keys[unknown[i]];
+            _clean[key] = (long)(a[0] ?? 0) == rows;
+            if (a[1] is { } mean && double.IsFinite(mean))
+            {
+                _references[key] = mean;
+            }
+        }
     }
 
     /// <summary>Fills the remembered references and cleanliness of keys this object has not looked up yet from the hint store.</summary>

@@ -133,8 +133,9 @@ public sealed class PostgresGroupTests(PostgresServer server) : PostgresSourceTe
 
     /// <summary>
     /// Column hints kept in a real store: a fresh source (a restarted worker, another worker) starts from what an
-    /// earlier source learned, so column big (10⁹ plus a spread of 1, far from the reference 0 a source starts from)
-    /// costs one scan instead of two; a wrong hint costs scans, never a figure.
+    /// earlier source learned, so its first read is the shared aggregate alone, where a source without hints first
+    /// surveys the columns (column big, 10⁹ plus a spread of 1, needs a reference near its mean); a wrong hint
+    /// costs scans, never a figure.
     /// </summary>
     [Fact]
     public async Task SharedRead_FreshSourceWithStoredHints_ScansOnce_AndAWrongHintNeverChangesAFigure()
