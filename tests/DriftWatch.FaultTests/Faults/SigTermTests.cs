@@ -47,13 +47,13 @@ public sealed class SigTermTests(PostgresServer server)
         }
 
         using var worker = bench.StartProcess();
-        await Eventually.TrueAsync("the worker's start waiting for the migration lock", async _ =>
+        await Eventually.TrueAsync("the worker's start waiting for the migration lock", async ct =>
         {
             Assert.False(worker.HasExited, worker.OutputLog());
             await using var connection = new NpgsqlConnection(bench.Store.ConnectionString);
-            await connection.OpenAsync();
+            await connection.OpenAsync(ct);
             await using var waiting = new NpgsqlCommand("SELECT count(*) FROM pg_locks WHERE locktype = 'advisory' AND NOT granted", connection);
-            return (long)(await waiting.ExecuteScalarAsync())! > 0;
+            return (long)(await waiting.ExecuteScalarAsync(ct))! > 0;
         }, worker.OutputLog);
 
         await worker.TerminateAsync();
