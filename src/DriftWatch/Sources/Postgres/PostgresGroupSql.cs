@@ -7,13 +7,23 @@ namespace DriftWatch.Sources.Postgres;
 /// <summary>
 /// The SQL of a group's shared read (pairs of one table or query with the same filter, window and sampling):
 /// the FROM and WHERE are those of <paramref name="shared"/>, the pairs' columns are <paramref name="columns"/>
-/// (quoted), each pair names two of them by index. The aggregate tests each column for finiteness once, in a
-/// subquery kept from being flattened (<c>OFFSET 0</c>) so the test is not repeated inside every aggregate,
-/// and sums per column once; only Σ dx·dy and the sums over each pair's unusable rows are per pair. Results come
-/// as one float8[] per column and per pair, which keeps the output far below PostgreSQL's 1,664 columns.
+/// (quoted), each pair names two of them by index. The aggregate tests each column for finiteness and shifts it
+/// once per row, in a subquery kept from being flattened (see <see cref="Fence"/>), and sums per column once;
+/// only Σ dx·dy and the sums over each pair's unusable rows are per pair. Results come as one float8[] per
+/// column and per pair, which keeps the output far below PostgreSQL's 1,664 columns.
 /// </summary>
 internal sealed class PostgresGroupSql(PostgresPairSql shared, PairTarget target, IReadOnlyList<string> columns, IReadOnlyList<(int X, int Y)> pairs, IReadOnlyList<bool> numeric)
 {
+    /// <summary>
+    /// A volatile, parallel-safe column in a subquery's select list. PostgreSQL pulls a plain subquery up into the
+    /// outer query and then computes each shifted value again inside every aggregate that uses it (a column of 100
+    /// pairs about ten times per row); a volatile function there keeps the subquery a level of its own, whose values
+    /// the scan computes once per row. Unlike <c>OFFSET 0</c>, which does the same, it leaves PostgreSQL free to run
+    /// the aggregate as a parallel scan. On 1M rows × 20 columns × 100 pairs (PostgreSQL 15, 2 cores): lean form
+    /// 1.7 → 1.2 s, full form 8.8 → 5.0 s. The value itself is never read.
+    /// </summary>
+    internal const string Fence = "clock_timestamp() AS keep_level";
+
     /// <summary>Zero rows: the server resolves the relation, the columns and the filter, and reports their types (window column last).</summary>
     public (string Sql, PositionalParameters Parameters) Probe()
     {
@@ -75,35 +85,41 @@ internal sealed class PostgresGroupSql(PostgresPairSql shared, PairTarget target
         var values = Values(p, null);
         var sql = $"""
             SELECT {outer}
-            FROM (SELECT {inner}
-                  FROM ({values}) v OFFSET 0) d
+            FROM (SELECT {inner}, {Fence}
+                  FROM ({values}) v) d
             """;
         return (sql, p);
     }
 
     /// <summary>
-    /// The lean form, for a group whose columns were all finite on every row at the last read: no finiteness test,
-    /// no subquery, so PostgreSQL may run it as a parallel scan. Row count, per column ARRAY[count of non-null
-    /// values, Σd, Σd²], per pair ARRAY[Σ dx·dy], d = value − reference. A null shows in the count, a NaN or an
-    /// infinity makes the column's sums non-finite: either way the caller sees that the assumption failed.
+    /// The lean form, for a group whose columns were all finite on every row at the last read: no finiteness test.
+    /// Row count, per column ARRAY[count of non-null values, Σd, Σd²], per pair ARRAY[Σ dx·dy], d = value −
+    /// reference. A null shows in the count, a NaN or an infinity makes the column's sums non-finite: either way the
+    /// caller sees that the assumption failed.
     /// </summary>
     public (string Sql, PositionalParameters Parameters) Lean(IReadOnlyList<double> references)
     {
         ArgumentNullException.ThrowIfNull(references);
         var p = new PositionalParameters();
-        var d = columns.Select((c, i) => $"({PostgresPairSql.Float8(shared.Column(c), numeric[i])} - {p.Add(references[i], NpgsqlDbType.Double)})").ToList();
+        var inner = new StringBuilder();
+        for (var c = 0; c < columns.Count; c++)
+        {
+            inner.Append(CultureInfo.InvariantCulture, $"{PostgresPairSql.Float8(shared.Column(columns[c]), numeric[c])} - {p.Add(references[c], NpgsqlDbType.Double)} AS d{Text(c)}, ");
+        }
+
         var outer = new StringBuilder("count(*)");
         for (var c = 0; c < columns.Count; c++)
         {
-            outer.Append(CultureInfo.InvariantCulture, $",\n       ARRAY[count({shared.Column(columns[c])}), sum({d[c]}), sum({d[c]} * {d[c]})]::float8[]");
+            var i = Text(c);
+            outer.Append(CultureInfo.InvariantCulture, $",\n       ARRAY[count(d.d{i}), sum(d.d{i}), sum(d.d{i} * d.d{i})]::float8[]");
         }
 
         foreach (var (x, y) in pairs)
         {
-            outer.Append(CultureInfo.InvariantCulture, $",\n       ARRAY[sum({d[x]} * {d[y]})]::float8[]");
+            outer.Append(CultureInfo.InvariantCulture, $",\n       ARRAY[sum(d.d{Text(x)} * d.d{Text(y)})]::float8[]");
         }
 
-        return ($"SELECT {outer}\nFROM {shared.From()}{shared.Where(p)}", p);
+        return ($"SELECT {outer}\nFROM (SELECT {inner}{Fence}\n      FROM {shared.From()}{shared.Where(p)}) d", p);
     }
 
     /// <summary>
