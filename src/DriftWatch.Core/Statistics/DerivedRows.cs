@@ -106,20 +106,15 @@ internal static class DerivedRows
     /// </remarks>
     private static (int Count, double Slope, double Intercept) MostFrequent(double[] slopes, double[] intercepts, int m)
     {
-        var bySlope = new int[m];
-        var sorted = new double[m];
-        for (int c = 0; c < m; c++)
-        {
-            bySlope[c] = c;
-            sorted[c] = slopes[c];
-        }
-
-        Array.Sort(sorted, bySlope);
+        // The radix sort of the ranks rather than Array.Sort (a comparison sort; see docs/performance.md). The
+        // order among equal slopes differs between the two, which cannot change a mark: equal slopes mark each other.
+        var (_, bySlope) = RadixSort.Sort(slopes[..m]);
         var shared = new bool[m];
         for (int s = 1; s < m; s++)
         {
+            double high = slopes[bySlope[s]], low = slopes[bySlope[s - 1]];
             // 4e-8 rather than 1e-8: a margin for the rounding of this test itself; a candidate marked in excess is only formatted.
-            if (sorted[s] - sorted[s - 1] <= 4e-8 * Math.Max(Math.Abs(sorted[s]), Math.Abs(sorted[s - 1])))
+            if (high - low <= 4e-8 * Math.Max(Math.Abs(high), Math.Abs(low)))
             {
                 shared[bySlope[s]] = true;
                 shared[bySlope[s - 1]] = true;
