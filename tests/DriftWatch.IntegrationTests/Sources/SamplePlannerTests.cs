@@ -57,4 +57,17 @@ public sealed class SamplePlannerTests
         Assert.Equal(SampleDraw.Random, view.Draw);
         Assert.NotNull(view.Note);
     }
+
+    [Fact]
+    public void RandomDraws_KeepAboutRowsPlusSixRootRowsPlus100_OnlyWhenThatIsAtMostHalfTheWindow()
+    {
+        // 10,000 of a 86,400-row window (one day of one row per second): keep (10,000 + 600 + 100) / 86,400.
+        Assert.Equal(10_700.0 / 86_400, SamplePlanner.KeepFor(10_000, 86_400)!.Value, 15);
+        Assert.Null(SamplePlanner.KeepFor(10_000, 20_000));
+        Assert.Equal(10_700.0 / 100_000, SamplePlanner.Choose(Auto, 100_000, 10_000_000, filtered: true).Keep!.Value, 15);
+        Assert.NotNull(SamplePlanner.Choose(Auto with { Method = SampleMethod.Random }, 5_000_000, 5e6, false).Keep);
+        // Not for the other draws.
+        Assert.Null(SamplePlanner.Choose(Auto, 1_000_000, 1_000_000, filtered: false).Keep);
+        Assert.Null(SamplePlanner.Choose(Auto, 8_000, 1e6, filtered: false).Keep);
+    }
 }

@@ -153,7 +153,7 @@ internal sealed class PostgresGroupSql(PostgresPairSql shared, PairTarget target
             case SampleDraw.All:
                 return (Values(p, null), p);
             case SampleDraw.Random:
-                return (Values(p, null) + " ORDER BY random() LIMIT " + p.Add(rows, NpgsqlDbType.Integer), p);
+                return (PostgresPairSql.RandomDraw(Values(p, null), plan.Keep, rows, p), p);
             default:
                 var method = bernoulli ? "BERNOULLI" : "SYSTEM";
                 var tablesample = $" TABLESAMPLE {method} ({p.Add((float)plan.Percent!.Value, NpgsqlDbType.Real)})";

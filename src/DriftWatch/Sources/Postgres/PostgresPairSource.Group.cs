@@ -316,12 +316,22 @@ internal sealed partial class PostgresPairSource
         batch.BatchCommands.Add(parameters.Command(text));
         await using var reader = await batch.ExecuteReaderAsync(CommandBehavior.SequentialAccess, ct);
         var read = new SampledColumns(columns, plan.Draw == SampleDraw.All ? 0 : spec.Rows);
+        var count = 0;
         while (await reader.ReadAsync(ct))
         {
             for (var c = 0; c < columns; c++)
             {
                 read.Add(c, reader.IsDBNull(c) ? null : reader.GetDouble(c));
             }
+
+            count++;
+        }
+
+        if (plan.Keep is not null && count < spec.Rows)
+        {
+            // The pre-filter kept too few rows (a chance near 1e-9): draw again from the whole window, as a lone read does.
+            await reader.DisposeAsync();
+            return await ReadGroupSampleAsync(connection, sql, plan with { Keep = null }, spec, columns, ct);
         }
 
         return read;

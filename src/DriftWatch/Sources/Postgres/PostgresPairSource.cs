@@ -322,11 +322,20 @@ internal sealed partial class PostgresPairSource : IPairSource, IGroupSource, IA
         batch.BatchCommands.Add(parameters.Command(text));
         await using var reader = await batch.ExecuteReaderAsync(CommandBehavior.SequentialAccess, ct);
         var builder = new PairedSampleBuilder(plan.Draw == SampleDraw.All ? 0 : spec.Rows);
+        var read = 0;
         while (await reader.ReadAsync(ct))
         {
             double? x = reader.IsDBNull(0) ? null : reader.GetDouble(0);
             double? y = reader.IsDBNull(1) ? null : reader.GetDouble(1);
             builder.Add(x, y);
+            read++;
+        }
+
+        if (plan.Keep is not null && read < spec.Rows)
+        {
+            // The pre-filter kept too few rows (a chance near 1e-9): draw again from the whole window.
+            await reader.DisposeAsync();
+            return await ReadSampleAsync(connection, sql, plan with { Keep = null }, spec, ct);
         }
 
         return builder.Build();

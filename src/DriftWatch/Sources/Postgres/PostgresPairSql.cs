@@ -101,7 +101,7 @@ internal sealed class PostgresPairSql(PairTarget target, WindowRange? window, bo
                 sql = Values(p, null);
                 break;
             case SampleDraw.Random:
-                sql = Values(p, null) + " ORDER BY random() LIMIT " + p.Add(rows, NpgsqlDbType.Integer);
+                sql = RandomDraw(Values(p, null), plan.Keep, rows, p);
                 break;
             default:
                 var method = bernoulli ? "BERNOULLI" : "SYSTEM";
@@ -128,6 +128,14 @@ internal sealed class PostgresPairSql(PairTarget target, WindowRange? window, bo
 
     private string Values(PositionalParameters p, string? tablesample) =>
         $"SELECT {Float8(Column(target.X), numericX)} AS x, {Float8(Column(target.Y), numericY)} AS y FROM {From()}{tablesample}{Where(p)}";
+
+    /// <summary>
+    /// <paramref name="rows"/> rows of <paramref name="values"/> in random order; with <paramref name="keep"/>, a random
+    /// pre-filter first (<see cref="SamplePlanner.KeepFor"/>). Both call random(), so a seed set before repeats the draw.
+    /// </summary>
+    internal static string RandomDraw(string values, double? keep, int rows, PositionalParameters p) => keep is { } k
+        ? $"SELECT * FROM ({values}) kept WHERE random() < {p.Add(k, NpgsqlDbType.Double)} ORDER BY random() LIMIT {p.Add(rows, NpgsqlDbType.Integer)}"
+        : $"{values} ORDER BY random() LIMIT {p.Add(rows, NpgsqlDbType.Integer)}";
 
     internal static string Float8(string column, bool numeric) => numeric
         ? $"""

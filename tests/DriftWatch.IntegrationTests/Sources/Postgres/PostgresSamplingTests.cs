@@ -62,6 +62,35 @@ public sealed class PostgresSamplingTests(PostgresServer server) : PostgresSourc
         Assert.Equal(first.Sample.X, second.Sample.X);
     }
 
+    /// <summary>
+    /// The random draw keeps a random share of the window before sorting (<c>SamplePlanner.KeepFor</c>);
+    /// the draw must still be uniform over the whole window. x is 1..200,000, so the mean of a uniform draw of 5,000
+    /// is 100,000.5 with a standard error of (200,000/√12)/√5,000 · √(1 − 5,000/200,000) ≈ 806 (finite population
+    /// correction; common practice). A pre-filter that favoured early rows (a LIMIT without the random order, say)
+    /// would miss by tens of thousands.
+    /// </summary>
+    [Theory]
+    [InlineData(11)]
+    [InlineData(12)]
+    [InlineData(13)]
+    public async Task Random_WithThePreFilter_IsUniformOverTheWholeWindow(int seed)
+    {
+        Assert.NotNull(global::DriftWatch.Sources.SamplePlanner.Choose(new SampleSpec { Rows = 5000, Method = SampleMethod.Random }, 200_000, 200_000, false).Keep);
+        await using var source = new PostgresPairSource(PgSource(Db.ConnectionString));
+        var pair = Table("readings", sample: new SampleSpec { Rows = 5000, Method = SampleMethod.Random, Seed = seed });
+
+        var sample = (await source.SampleAsync(pair, Now, CancellationToken.None)).Sample;
+
+        Assert.Equal(5000, sample.UsedCount);
+        AssertRealDistinctRows(sample);
+        const double StandardError = 200_000 / 3.4641016151377544 / 70.71067811865476 * 0.98742088290657;
+        Assert.InRange(sample.X.Average(), 100_000.5 - (5 * StandardError), 100_000.5 + (5 * StandardError));
+        // Both ends of the window are reached: the smallest x among 5,000 uniform draws lies in the first 1 % of 200,000
+        // except with chance (0.99)^5000 ≈ 1.5e-22, likewise the largest in the last 1 %.
+        Assert.True(sample.X.Min() <= 2000, $"smallest x {sample.X.Min()}");
+        Assert.True(sample.X.Max() >= 198_000, $"largest x {sample.X.Max()}");
+    }
+
     [Fact]
     public async Task All_ReadsEveryRow()
     {
