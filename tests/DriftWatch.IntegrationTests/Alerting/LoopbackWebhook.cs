@@ -14,7 +14,7 @@ internal sealed record ReceivedPost(string? Timestamp, string? Signature, string
 internal sealed class LoopbackWebhook : IDisposable
 {
     private readonly HttpListener _listener = new();
-    private readonly Queue<(int Status, string Body)> _script = new();
+    private readonly Queue<(int Status, string Body, string? RetryAfter)> _script = new();
     private readonly List<ReceivedPost> _received = [];
     private readonly Task _loop;
 
@@ -53,14 +53,14 @@ internal sealed class LoopbackWebhook : IDisposable
         return port;
     }
 
-    /// <summary>The next requests get these statuses, in order (then 200 again).</summary>
-    public void AnswerNext(int status, string body = "", int times = 1)
+    /// <summary>The next requests get these statuses, in order (then 200 again), with a Retry-After header when given.</summary>
+    public void AnswerNext(int status, string body = "", int times = 1, string? retryAfter = null)
     {
         lock (_script)
         {
             for (var i = 0; i < times; i++)
             {
-                _script.Enqueue((status, body));
+                _script.Enqueue((status, body, retryAfter));
             }
         }
     }
@@ -95,10 +95,10 @@ internal sealed class LoopbackWebhook : IDisposable
 
             using var body = new MemoryStream();
             await context.Request.InputStream.CopyToAsync(body);
-            (int Status, string Body) answer;
+            (int Status, string Body, string? RetryAfter) answer;
             lock (_script)
             {
-                answer = _script.Count > 0 ? _script.Dequeue() : (200, "accepted");
+                answer = _script.Count > 0 ? _script.Dequeue() : (200, "accepted", null);
             }
 
             var request = context.Request;
@@ -115,6 +115,11 @@ internal sealed class LoopbackWebhook : IDisposable
             }
 
             context.Response.StatusCode = answer.Status;
+            if (answer.RetryAfter is { } retryAfter)
+            {
+                context.Response.AddHeader("Retry-After", retryAfter);
+            }
+
             var bytes = System.Text.Encoding.UTF8.GetBytes(answer.Body);
             context.Response.ContentLength64 = bytes.Length;
             await context.Response.OutputStream.WriteAsync(bytes);

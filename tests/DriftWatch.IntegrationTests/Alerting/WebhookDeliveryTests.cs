@@ -124,6 +124,40 @@ public sealed class WebhookDeliveryTests : IDisposable
         Assert.Empty(await harness.Outbox.ListOutboxAsync(unsentOnly: true, 10, CancellationToken.None));
     }
 
+    /// <summary>
+    /// A receiver that answers 429 or 503 with Retry-After (RFC 9110, section 10.2.3: seconds, or an HTTP date) is not
+    /// posted to again before then, up to the longest backoff (10 minutes here); without the header the backoff's
+    /// first wait would be at most a minute.
+    /// </summary>
+    [Theory]
+    [InlineData(429, "420", 420)]
+    [InlineData(503, "date+300", 300)]
+    [InlineData(429, "10800", 600)]
+    public async Task Dispatch_ReceiverSaysRetryAfter_NextAttemptWaitsThatLong_CappedAtTheLongestBackoff(int status, string header, int expectedSeconds)
+    {
+        using var receiver = LoopbackWebhook.Start();
+        var harness = new AlertHarness(await _file.OpenAsync(), Config(receiver.Url), Retries);
+        var asked = header.StartsWith("date+", StringComparison.Ordinal)
+            ? (harness.Time.GetUtcNow() + TimeSpan.FromSeconds(int.Parse(header[5..], CultureInfo.InvariantCulture))).ToString("r", CultureInfo.InvariantCulture)
+            : header;
+        receiver.AnswerNext(status, "slow down", retryAfter: asked);
+        await harness.CycleAsync((Pair("weights"), [Critical(FindingKind.SignFlip, "flipped")]));
+        var start = harness.Time.GetUtcNow();
+
+        var first = await harness.Dispatcher.DispatchDueAsync(CancellationToken.None);
+        var waiting = Assert.Single(await harness.Outbox.ListOutboxAsync(unsentOnly: true, 10, CancellationToken.None));
+        harness.Time.Advance(TimeSpan.FromSeconds(expectedSeconds - 1));
+        var early = await harness.Dispatcher.DispatchDueAsync(CancellationToken.None);
+        harness.Time.Advance(TimeSpan.FromSeconds(1));
+        var due = await harness.Dispatcher.DispatchDueAsync(CancellationToken.None);
+
+        Assert.Equal((0, 1), (first.Sent, first.Failed));
+        Assert.Equal(start + TimeSpan.FromSeconds(expectedSeconds), waiting.NextAttemptAt);
+        Assert.Equal(0, early.Sent + early.Failed);
+        Assert.Equal((1, 0), (due.Sent, due.Failed));
+        Assert.Equal([status, 200], receiver.Received.Select(p => p.Answered));
+    }
+
     [Theory]
     [InlineData(503)]
     [InlineData(429)]

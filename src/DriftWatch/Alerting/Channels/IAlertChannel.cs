@@ -36,6 +36,9 @@ internal enum ChannelBody
 /// <summary>The channel cannot deliver anything right now; a later attempt may succeed.</summary>
 internal sealed class ChannelUnavailableException : Exception
 {
+    /// <summary>How long the receiver asked to be left alone (an HTTP <c>Retry-After</c>), when it said so.</summary>
+    public TimeSpan? RetryAfter { get; init; }
+
     public ChannelUnavailableException(string message, Exception? innerException = null)
         : base(message, innerException)
     {

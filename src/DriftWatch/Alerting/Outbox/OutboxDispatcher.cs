@@ -213,7 +213,15 @@ internal sealed class OutboxDispatcher(
     private async Task RecordFailureAsync(OutboxEntry entry, Exception ex, CancellationToken cancellationToken)
     {
         var attempt = entry.Attempts + 1;
-        var next = time.GetUtcNow() + RetryBackoff.Delay(attempt, options, jitter);
+        var wait = RetryBackoff.Delay(attempt, options, jitter);
+        if (ex is ChannelUnavailableException { RetryAfter: { } asked } && asked > wait)
+        {
+            // A receiver that says when to come back is taken at its word, up to the longest backoff: a bad header
+            // must not park alerts for days.
+            wait = asked < options.RetryMax ? asked : options.RetryMax;
+        }
+
+        var next = time.GetUtcNow() + wait;
         // One line per failed attempt: an outage repeats it every retry, so the stack trace waits for debug level.
         logger.LogWarning("Alert message {MessageId} on mailing list {MailingList} failed (attempt {Attempt}): {Reason}; next attempt at {NextAttempt}",
             entry.MessageId, entry.MailingList, attempt, ex.Message, next);

@@ -81,7 +81,10 @@ internal sealed class WebhookAlertChannel(TimeProvider time) : IAlertChannel, ID
             var reason = await ReasonAsync(response, linked.Token);
             if (IsUnavailable(response.StatusCode))
             {
-                throw new ChannelUnavailableException($"Webhook {receiver} of mailing list '{list.Name}' unavailable: HTTP {status}{reason}");
+                throw new ChannelUnavailableException($"Webhook {receiver} of mailing list '{list.Name}' unavailable: HTTP {status}{reason}")
+                {
+                    RetryAfter = AskedToWait(response, time.GetUtcNow()),
+                };
             }
 
             throw new MessageRefusedException($"Webhook {receiver} of mailing list '{list.Name}' refused message {entry.MessageId}: HTTP {status}{reason}");
@@ -93,6 +96,18 @@ internal sealed class WebhookAlertChannel(TimeProvider time) : IAlertChannel, ID
     /// <summary>408, 429 and 5xx say "not now": the same post may be taken later.</summary>
     public static bool IsUnavailable(HttpStatusCode status) =>
         status is HttpStatusCode.RequestTimeout or HttpStatusCode.TooManyRequests || (int)status >= 500;
+
+    /// <summary>
+    /// The wait a 429 or 503 asks for in its Retry-After header, as seconds or as an HTTP date (RFC 9110, section
+    /// 10.2.3); null without one, or for a date already past.
+    /// </summary>
+    public static TimeSpan? AskedToWait(HttpResponseMessage response, DateTimeOffset now)
+    {
+        ArgumentNullException.ThrowIfNull(response);
+        var header = response.Headers.RetryAfter;
+        var wait = header?.Delta ?? (header?.Date is { } date ? date - now : null);
+        return wait is { } w && w > TimeSpan.Zero ? w : null;
+    }
 
     /// <summary>scheme://host:port, the part of a URL that is safe to log.</summary>
     public static string Receiver(Uri url)
