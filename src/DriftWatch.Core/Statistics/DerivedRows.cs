@@ -98,52 +98,100 @@ internal static class DerivedRows
     /// first candidate.
     /// </summary>
     /// <remarks>
-    /// Formatting two numbers per neighbouring pair of rows was most of a profile's time, and nearly every candidate
-    /// has a key of its own. Two slopes with the same 9-digit text differ by at most 1e-8 of the larger; so a slope
-    /// farther than that from both its neighbours in slope order shares its key with no other candidate and counts
-    /// once, unformatted. Only the others are formatted and counted by their text, which gives exactly the counts and
-    /// the winner of counting every candidate by its text.
+    /// Formatting two numbers per neighbouring pair of rows was most of a profile's time, and on values rounded to
+    /// cents many neighbouring pairs share a slope by coincidence. Keys are therefore found without formatting every
+    /// candidate: rounding to 9 digits keeps order, so candidates with one slope text are a run of the slope order;
+    /// equal numbers (bit for bit) share their text, and two different numbers can share it only when they lie within
+    /// 4·10⁻⁸ of each other (same text: at most 10⁻⁸ of the larger apart), so only such neighbours are formatted and
+    /// compared. Within each run of one slope text the intercepts are ordered and split the same way. The classes are
+    /// exactly the keys that formatting every candidate would give (<c>DerivedRowsTests</c> checks it against that
+    /// plain definition), so the counts, the winner and its tie-break are unchanged.
     /// </remarks>
     private static (int Count, double Slope, double Intercept) MostFrequent(double[] slopes, double[] intercepts, int m)
     {
-        // The radix sort of the ranks rather than Array.Sort (a comparison sort; see docs/performance.md). The
-        // order among equal slopes differs between the two, which cannot change a mark: equal slopes mark each other.
         var (_, bySlope) = RadixSort.Sort(slopes[..m]);
-        var shared = new bool[m];
-        for (int s = 1; s < m; s++)
+        var key = new int[m];
+        var keys = 0;
+        var members = new List<int>();
+        for (int start = 0; start < m;)
         {
-            double high = slopes[bySlope[s]], low = slopes[bySlope[s - 1]];
-            // 4e-8 rather than 1e-8: a margin for the rounding of this test itself; a candidate marked in excess is only formatted.
-            if (high - low <= 4e-8 * Math.Max(Math.Abs(high), Math.Abs(low)))
+            // One run of equal slope text: [start, end) of the slope order.
+            int end = start + 1;
+            string? lastText = null;
+            while (end < m && SameText(slopes[bySlope[end - 1]], slopes[bySlope[end]], ref lastText))
             {
-                shared[bySlope[s]] = true;
-                shared[bySlope[s - 1]] = true;
+                end++;
             }
-        }
 
-        // Count, first candidate, figures of that candidate.
-        var votes = new Dictionary<(string Slope, string Intercept), (int Count, int First, double Slope, double Intercept)>();
-        (int Count, int First, double Slope, double Intercept) best = (0, int.MaxValue, 0, 0);
-        for (int c = 0; c < m; c++)
-        {
-            (int Count, int First, double Slope, double Intercept) entry;
-            if (!shared[c])
+            if (end - start == 1)
             {
-                entry = (1, c, slopes[c], intercepts[c]);
+                key[bySlope[start]] = keys++;
             }
             else
             {
-                var key = (slopes[c].ToString("G9", CultureInfo.InvariantCulture), intercepts[c].ToString("G9", CultureInfo.InvariantCulture));
-                entry = votes.TryGetValue(key, out var v) ? (v.Count + 1, v.First, v.Slope, v.Intercept) : (1, c, slopes[c], intercepts[c]);
-                votes[key] = entry;
+                members.Clear();
+                for (int s = start; s < end; s++)
+                {
+                    members.Add(bySlope[s]);
+                }
+
+                // Zeros by sign, so a −0 intercept ("-0") and a +0 one ("0") are neighbours but not equal.
+                members.Sort((a, b) => intercepts[a] != intercepts[b] ? intercepts[a].CompareTo(intercepts[b]) : double.IsNegative(intercepts[b]).CompareTo(double.IsNegative(intercepts[a])));
+                string? lastIntercept = null;
+                key[members[0]] = keys++;
+                for (int i = 1; i < members.Count; i++)
+                {
+                    key[members[i]] = SameText(intercepts[members[i - 1]], intercepts[members[i]], ref lastIntercept) ? keys - 1 : keys++;
+                }
             }
 
-            if (entry.Count > best.Count || (entry.Count == best.Count && entry.First < best.First))
+            start = end;
+        }
+
+        // Count, first candidate; the best by count, then by the earlier first candidate.
+        var count = new int[keys];
+        var first = new int[keys];
+        Array.Fill(first, int.MaxValue);
+        for (int c = 0; c < m; c++)
+        {
+            count[key[c]]++;
+            first[key[c]] = Math.Min(first[key[c]], c);
+        }
+
+        int best = 0;
+        for (int k = 1; k < keys; k++)
+        {
+            if (count[k] > count[best] || (count[k] == count[best] && first[k] < first[best]))
             {
-                best = entry;
+                best = k;
             }
         }
 
-        return (best.Count, best.Slope, best.Intercept);
+        return (count[best], slopes[first[best]], intercepts[first[best]]);
+    }
+
+    /// <summary>
+    /// Whether <paramref name="a"/> and <paramref name="b"/> (neighbours in order) have the same "G9" text;
+    /// <paramref name="bText"/> carries b's text to the next call when it was formatted, so each number is formatted
+    /// at most once per run.
+    /// </summary>
+    private static bool SameText(double a, double b, ref string? bText)
+    {
+        if (BitConverter.DoubleToInt64Bits(a) == BitConverter.DoubleToInt64Bits(b))
+        {
+            // Same number, same text; a text known for a still stands for b.
+            return true;
+        }
+
+        // 4e-8 rather than 1e-8: a margin for the rounding of this test itself; a pair tested in excess is only formatted.
+        if (!(Math.Abs(b - a) <= 4e-8 * Math.Max(Math.Abs(a), Math.Abs(b))))
+        {
+            bText = null;
+            return false;
+        }
+
+        var aText = bText ?? a.ToString("G9", CultureInfo.InvariantCulture);
+        bText = b.ToString("G9", CultureInfo.InvariantCulture);
+        return string.Equals(aText, bText, StringComparison.Ordinal);
     }
 }

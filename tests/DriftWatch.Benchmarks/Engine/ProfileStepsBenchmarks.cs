@@ -13,6 +13,7 @@ namespace DriftWatch.Benchmarks.Engine;
 [Config(typeof(EngineConfig))]
 public class ProfileStepsBenchmarks
 {
+    private PairedSample _sample = PairedSample.Empty;
     private double[] _x = [];
     private double[] _y = [];
     private Ranking _rankX = null!;
@@ -24,7 +25,8 @@ public class ProfileStepsBenchmarks
     [GlobalSetup]
     public void Setup()
     {
-        var rows = UsableRows.Of(EngineData.Pair(10_000, seed: 1));
+        _sample = EngineData.Pair(10_000, seed: 1);
+        var rows = UsableRows.Of(_sample);
         (_x, _y) = (rows.X, rows.Y);
         _rankX = Ranking.Of(_x);
         _rankY = Ranking.Of(_y);
@@ -34,7 +36,7 @@ public class ProfileStepsBenchmarks
     }
 
     [Benchmark(Baseline = true)]
-    public RelationshipProfile WholeProfile() => Profiler.Profile(EngineData.Pair(10_000, seed: 1), Thresholds.Default);
+    public RelationshipProfile WholeProfile() => Profiler.Profile(_sample, Thresholds.Default);
 
     [Benchmark]
     public object RanksOfX() => Ranking.Of(_x);
