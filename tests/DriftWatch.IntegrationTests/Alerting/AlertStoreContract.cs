@@ -25,8 +25,8 @@ public abstract class AlertStoreContract
 
         // 001 history, 002 alerts, 003 worker state, 004 unmeasurable runs, 005 baseline runs, 006 alert
         // vocabulary, 007 outbox claims, 008 audit log and baseline resets, 009 run keys, 010 several workers, 011 webhook
-        // outbox, 012 window end and back-dated runs, 013 slot claims: all of them, in order.
-        Assert.Equal([1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13], versions);
+        // outbox, 012 window end and back-dated runs, 013 slot claims, 014 column hints: all of them, in order.
+        Assert.Equal([1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14], versions);
     }
 
     [Fact]
