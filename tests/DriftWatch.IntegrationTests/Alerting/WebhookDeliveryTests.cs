@@ -158,6 +158,35 @@ public sealed class WebhookDeliveryTests : IDisposable
         Assert.Equal([status, 200], receiver.Received.Select(p => p.Answered));
     }
 
+    /// <summary>
+    /// Retry-After speaks for the receiver, not for one post: the list's other messages are not posted before then
+    /// either, though their leases (5 minutes here) run out sooner, and they are all due when the wait ends.
+    /// </summary>
+    [Fact]
+    public async Task Dispatch_ReceiverSaysRetryAfter_TheListsOtherMessagesWaitToo()
+    {
+        using var receiver = LoopbackWebhook.Start();
+        var harness = new AlertHarness(await _file.OpenAsync(), Config(receiver.Url), Retries);
+        receiver.AnswerNext(429, "slow down", retryAfter: "420");
+        await harness.CycleAsync((Pair("weights"), [Critical(FindingKind.SignFlip, "flipped")]));
+        await harness.CycleAsync((Pair("volumes"), [Critical(FindingKind.BecamePerfect, "became exact")]));
+        var start = harness.Time.GetUtcNow();
+
+        var first = await harness.Dispatcher.DispatchDueAsync(CancellationToken.None);
+        var held = await harness.Outbox.ListOutboxAsync(unsentOnly: true, 10, CancellationToken.None);
+        harness.Time.Advance(TimeSpan.FromMinutes(6));
+        var afterLease = await harness.Dispatcher.DispatchDueAsync(CancellationToken.None);
+        harness.Time.Advance(TimeSpan.FromMinutes(1));
+        var due = await harness.Dispatcher.DispatchDueAsync(CancellationToken.None);
+
+        Assert.Equal((0, 1, 1), (first.Sent, first.Failed, first.Deferred));
+        Assert.Equal(2, held.Count);
+        Assert.All(held, e => Assert.Equal(start + TimeSpan.FromSeconds(420), e.NextAttemptAt));
+        Assert.Equal(0, afterLease.Sent + afterLease.Failed);
+        Assert.Equal(2, due.Sent);
+        Assert.Equal([429, 200, 200], receiver.Received.Select(p => p.Answered));
+    }
+
     [Theory]
     [InlineData(503)]
     [InlineData(429)]

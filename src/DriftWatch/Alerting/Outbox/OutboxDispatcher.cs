@@ -27,6 +27,10 @@ internal sealed class OutboxDispatcher(
 {
     private readonly Dictionary<ChannelKind, IAlertChannel> _channels = channels.ToDictionary(c => c.Kind);
 
+    // Mailing lists whose receiver asked to be left alone (Retry-After) until when: the wait is the receiver's, not
+    // one message's, so none of the list's messages is tried before then.
+    private readonly System.Collections.Concurrent.ConcurrentDictionary<string, DateTimeOffset> _pausedUntil = new(StringComparer.Ordinal);
+
     /// <summary>Works off every message due now, batch after batch.</summary>
     public async Task<DispatchResult> DispatchDueAsync(CancellationToken cancellationToken)
     {
@@ -85,6 +89,15 @@ internal sealed class OutboxDispatcher(
         int sent = 0, failed = 0, deferred = 0;
         foreach (var entry in batch)
         {
+            if (_pausedUntil.TryGetValue(entry.MailingList, out var until) && until > time.GetUtcNow())
+            {
+                // Due again when the pause ends, not when its lease runs out; not an attempt, so no backoff grows.
+                Release(inHand, entry.Id);
+                await store.RenewClaimsAsync([entry.Id], options.ClaimOwner, until, cancellationToken);
+                deferred++;
+                continue;
+            }
+
             if (down.Contains(entry.MailingList))
             {
                 // Claimed but not tried: no longer renewed, its lease brings it back once it runs out.
@@ -219,6 +232,7 @@ internal sealed class OutboxDispatcher(
             // A receiver that says when to come back is taken at its word, up to the longest backoff: a bad header
             // must not park alerts for days.
             wait = asked < options.RetryMax ? asked : options.RetryMax;
+            _pausedUntil[entry.MailingList] = time.GetUtcNow() + wait;
         }
 
         var next = time.GetUtcNow() + wait;

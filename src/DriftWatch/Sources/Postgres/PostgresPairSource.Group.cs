@@ -11,8 +11,8 @@ namespace DriftWatch.Sources.Postgres;
 /// <summary>
 /// The shared read of a group of pairs (<see cref="IGroupSource"/>): one session, one snapshot, one gate slot of
 /// <see cref="SourceConfig.MaxConcurrentQueries"/>; one aggregate scan (two when the remembered references lie
-/// too far from the means; a cheap survey first for columns nothing is known of), one sample of all the group's columns. JIT is off for the session: it makes such
-/// wide aggregates several times slower.
+/// too far from the means; a cheap survey first for columns nothing is known of), one sample of all the group's
+/// columns. JIT is off for the session: it makes such wide aggregates several times slower.
 /// </summary>
 internal sealed partial class PostgresPairSource
 {
